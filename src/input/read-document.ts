@@ -1,0 +1,614 @@
+/**
+ * JSON text -> checked document: parse, validate against the schema, convert every quantity to
+ * SI, apply defaults, and check the rules the schema cannot express. Every problem is collected
+ * (not only the first) and reported with its JSON Pointer.
+ */
+import { Ajv2020, type ErrorObject } from "ajv/dist/2020.js";
+import { type ParseError, parse as parseTolerant, printParseErrorCode } from "jsonc-parser";
+import { gasMixture, gasPreset, GAS_PRESET_NAMES, idealGas, isGasPresetName } from "../gas/gas.js";
+import type { Gas, ViscosityLaw } from "../gas/gas-types.js";
+import type {
+  CheckedDocument,
+  CheckedEdge,
+  CheckedNode,
+  DesignLimits,
+  GasInput,
+  InputNote,
+  NetworkDocument,
+  QuantityInput,
+} from "./document-types.js";
+import { type InputIssue, InputError, jsonPointer, sortIssues } from "./issues.js";
+import { networkSchema } from "./network-schema.js";
+import { parseQuantity, type QuantityKind } from "./quantity.js";
+
+/** Defaults of the solver settings, documented in docs/model.md. */
+export const DEFAULT_SETTINGS = {
+  pipeModel: "adiabatic",
+  tolerance: 1e-9,
+  maxIterations: 100,
+} as const;
+
+/** Default absolute roughness [m]: carbon steel, not corroded (NORSOK P-001 section 5.2.2). */
+export const DEFAULT_ROUGHNESS = 0.05e-3;
+
+/** Default ambient state: 101325 Pa and 293.15 K (20 degC), common practice. */
+export const DEFAULT_AMBIENT = { pressure: 101325, temperature: 293.15 } as const;
+
+/** Largest input text accepted, in characters: larger files are refused before parsing. */
+export const MAX_DOCUMENT_LENGTH = 64 * 1024 * 1024;
+
+/** Result of reading: the checked document, or every problem found. */
+export type ReadResult =
+  | { ok: true; document: CheckedDocument }
+  | { ok: false; issues: InputIssue[] };
+
+/**
+ * Parse JSON text. Syntax errors come back as one issue with line and column (1-based).
+ */
+export function parseJsonText(
+  text: string,
+): { ok: true; value: unknown } | { ok: false; issues: InputIssue[] } {
+  if (text.length > MAX_DOCUMENT_LENGTH) {
+    return {
+      ok: false,
+      issues: [
+        {
+          code: "document",
+          path: "",
+          message: `the document is ${text.length} characters long; the largest accepted is ${MAX_DOCUMENT_LENGTH}`,
+        },
+      ],
+    };
+  }
+  if (text.trim() === "") {
+    return {
+      ok: false,
+      issues: [{ code: "document", path: "", message: "the document is empty; expected a JSON object" }],
+    };
+  }
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  try {
+    return { ok: true, value: JSON.parse(body) };
+  } catch {
+    // JSON.parse does not say where; a tolerant parser finds the first error's offset.
+    const errors: ParseError[] = [];
+    parseTolerant(body, errors, { allowTrailingComma: false, disallowComments: true });
+    const first = errors[0];
+    const offset = first?.offset ?? 0;
+    const { line, column } = lineAndColumn(body, offset);
+    const what = first ? describeParseError(printParseErrorCode(first.error)) : "invalid JSON";
+    return {
+      ok: false,
+      issues: [
+        {
+          code: "json-syntax",
+          path: "",
+          line,
+          column,
+          message: `invalid JSON at line ${line}, column ${column}: ${what}`,
+        },
+      ],
+    };
+  }
+}
+
+function describeParseError(code: string): string {
+  const words = code.replace(/([a-z])([A-Z])/g, "$1 $2").toLowerCase();
+  return words.replace(/^invalid symbol$/, "unexpected character");
+}
+
+function lineAndColumn(text: string, offset: number): { line: number; column: number } {
+  let line = 1;
+  let lineStart = 0;
+  for (let i = 0; i < offset && i < text.length; i++) {
+    if (text.charCodeAt(i) === 10) {
+      line++;
+      lineStart = i + 1;
+    }
+  }
+  return { line, column: offset - lineStart + 1 };
+}
+
+let compiledValidator: ReturnType<Ajv2020["compile"]> | undefined;
+
+/** The schema validator, compiled once on first use (allowed shared state: it never changes). */
+function schemaValidator(): ReturnType<Ajv2020["compile"]> {
+  if (compiledValidator === undefined) {
+    const ajv = new Ajv2020({ allErrors: true, strict: true, strictRequired: false, allowUnionTypes: true });
+    compiledValidator = ajv.compile(networkSchema);
+  }
+  return compiledValidator;
+}
+
+/** Check a parsed value against schemas/network.schema.json; [] when it conforms. */
+export function validateAgainstSchema(value: unknown): InputIssue[] {
+  const validate = schemaValidator();
+  if (validate(value)) return [];
+  // Copy at once: ajv keeps only the last call's errors on the validator.
+  const errors = [...(validate.errors ?? [])];
+  const issues = errors
+    .map((error) => schemaIssue(error))
+    .filter((issue): issue is InputIssue => issue !== undefined);
+  return dedupe(sortIssues(issues));
+}
+
+function dedupe(issues: InputIssue[]): InputIssue[] {
+  const seen = new Set<string>();
+  return issues.filter((issue) => {
+    const key = `${issue.path}\u0000${issue.message}`;
+    if (seen.has(key)) return false;
+    seen.add(key);
+    return true;
+  });
+}
+
+/** Reword one ajv error as a user-facing line, keeping ajv's path. */
+function schemaIssue(error: ErrorObject): InputIssue | undefined {
+  const path = error.instancePath;
+  const params = error.params as Record<string, unknown>;
+  switch (error.keyword) {
+    case "required":
+      return {
+        code: "schema",
+        path,
+        message: `missing required field "${String(params.missingProperty)}"`,
+      };
+    case "additionalProperties": {
+      const allowed = allowedFields(error.parentSchema);
+      return {
+        code: "schema",
+        path: `${path}/${String(params.additionalProperty)}`,
+        message: `unknown field "${String(params.additionalProperty)}"${allowed ? `; allowed fields here: ${allowed}` : ""}`,
+      };
+    }
+    case "type": {
+      const expected = String(params.type);
+      const wanted =
+        expected === "number,string"
+          ? 'a number in SI units or a quantity string such as "80 mm"'
+          : `of type ${expected.replace(",", " or ")}`;
+      return { code: "schema", path, message: `must be ${wanted}` };
+    }
+    case "enum":
+      return {
+        code: "schema",
+        path,
+        message: `must be one of ${(params.allowedValues as unknown[]).map((v) => JSON.stringify(v)).join(", ")}`,
+      };
+    case "minItems":
+      return { code: "schema", path, message: `must have at least ${String(params.limit)} item(s)` };
+    case "maxItems":
+      return { code: "schema", path, message: `must have at most ${String(params.limit)} items` };
+    case "minLength":
+      return { code: "schema", path, message: "must not be empty" };
+    case "maxLength":
+      return {
+        code: "schema",
+        path,
+        message: `must be at most ${String(params.limit)} characters long`,
+      };
+    case "minimum":
+    case "maximum":
+    case "exclusiveMinimum":
+    case "exclusiveMaximum":
+      return {
+        code: "schema",
+        path,
+        message: `must be ${String(params.comparison)} ${String(params.limit)}`,
+      };
+    case "not":
+      return notIssue(path, error.schema);
+    case "if":
+    case "anyOf":
+    case "allOf":
+      // The failing branch's own errors say what is wrong; these summaries add nothing.
+      return undefined;
+    case "integer":
+      return { code: "schema", path, message: "must be a whole number" };
+    default:
+      return { code: "schema", path, message: error.message ?? "is not valid here" };
+  }
+}
+
+function allowedFields(parentSchema: unknown): string {
+  const properties = (parentSchema as { properties?: Record<string, unknown> } | undefined)
+    ?.properties;
+  return properties ? Object.keys(properties).join(", ") : "";
+}
+
+function notIssue(path: string, schema: unknown): InputIssue {
+  const required = (schema as { required?: string[] } | undefined)?.required ?? [];
+  if (required.includes("roughness") && required.includes("frictionFactor")) {
+    return {
+      code: "schema",
+      path,
+      message: 'give either "roughness" or "frictionFactor", not both',
+    };
+  }
+  if (required.includes("demand")) {
+    return {
+      code: "schema",
+      path: `${path}/demand`,
+      message: "a reservoir takes no demand: its flow follows from the network",
+    };
+  }
+  if (required.includes("pressure")) {
+    return {
+      code: "schema",
+      path: `${path}/pressure`,
+      message: "a junction's pressure is solved for; only a reservoir has a fixed pressure",
+    };
+  }
+  return { code: "schema", path, message: "is not allowed here" };
+}
+
+/**
+ * Read a network document from JSON text: parse, validate, convert, check. Never throws for bad
+ * input: every problem comes back as an issue with its JSON Pointer.
+ */
+export function readNetworkText(text: string): ReadResult {
+  const parsed = parseJsonText(text);
+  if (!parsed.ok) return parsed;
+  return readNetworkDocument(parsed.value);
+}
+
+/**
+ * Check a network document already parsed from JSON (or built in code) and convert it to SI.
+ * The caller's object is not changed.
+ */
+export function readNetworkDocument(value: unknown): ReadResult {
+  if (typeof value !== "object" || value === null || Array.isArray(value)) {
+    const found = value === null ? "null" : Array.isArray(value) ? "an array" : typeof value;
+    return {
+      ok: false,
+      issues: [
+        {
+          code: "document",
+          path: "",
+          message: `a network document must be a JSON object with "nodes" and "edges" (got ${found})`,
+        },
+      ],
+    };
+  }
+  const schemaIssues = validateAgainstSchema(value);
+  if (schemaIssues.length > 0) return { ok: false, issues: schemaIssues };
+  return convertDocument(value as NetworkDocument);
+}
+
+/** Like {@link readNetworkDocument} but throws an {@link InputError} with every issue. */
+export function checkedDocumentOrThrow(value: unknown): CheckedDocument {
+  const result = typeof value === "string" ? readNetworkText(value) : readNetworkDocument(value);
+  if (!result.ok) throw new InputError(result.issues);
+  return result.document;
+}
+
+/** Collects issues and notes while converting values. */
+class Reader {
+  readonly issues: InputIssue[] = [];
+  readonly notes: InputNote[] = [];
+  ambientPressure: number = DEFAULT_AMBIENT.pressure;
+  molarMass: number | undefined;
+
+  quantity(input: QuantityInput | undefined, kind: QuantityKind, path: string): number | undefined {
+    if (input === undefined) return undefined;
+    const context: { ambientPressure: number; path: string; molarMass?: number } = {
+      ambientPressure: this.ambientPressure,
+      path,
+    };
+    if (this.molarMass !== undefined) context.molarMass = this.molarMass;
+    const result = parseQuantity(input, kind, context);
+    if (!result.ok) {
+      this.issues.push(result.issue);
+      return undefined;
+    }
+    for (const note of result.notes) this.notes.push(note);
+    return result.value;
+  }
+
+  positive(input: QuantityInput | undefined, kind: QuantityKind, path: string): number | undefined {
+    const value = this.quantity(input, kind, path);
+    if (value !== undefined && !(value > 0)) {
+      this.issues.push({
+        code: "value",
+        path,
+        value: input as QuantityInput,
+        message: `must be greater than 0 (got ${JSON.stringify(input)})`,
+      });
+      return undefined;
+    }
+    return value;
+  }
+
+  fail(issue: InputIssue): void {
+    this.issues.push(issue);
+  }
+}
+
+function convertDocument(doc: NetworkDocument): ReadResult {
+  const reader = new Reader();
+
+  // Ambient first: gauge pressures everywhere else are relative to it.
+  const ambientPressureInput = doc.ambient?.pressure;
+  if (typeof ambientPressureInput === "string" && /\(g\)|g$|gauge/i.test(ambientPressureInput.trim())) {
+    reader.fail({
+      code: "value",
+      path: "/ambient/pressure",
+      value: ambientPressureInput,
+      message: `the ambient pressure is the reference of gauge pressures and must be absolute (got ${JSON.stringify(ambientPressureInput)}); write e.g. "1.01325 bar(a)"`,
+    });
+  }
+  const ambientPressure =
+    reader.positive(ambientPressureInput, "pressure", "/ambient/pressure") ?? DEFAULT_AMBIENT.pressure;
+  reader.ambientPressure = ambientPressure;
+  const ambientTemperature =
+    reader.quantity(doc.ambient?.temperature, "temperature", "/ambient/temperature") ??
+    DEFAULT_AMBIENT.temperature;
+
+  // Gas next: standard and normal volume flows need its molar mass.
+  const gas = readGas(doc.gas, reader);
+  if (gas) reader.molarMass = gas.molarMass;
+
+  const limitsInput = doc.settings?.limits ?? {};
+  const limits: DesignLimits = {};
+  if (limitsInput.maxMach !== undefined) limits.maxMach = limitsInput.maxMach;
+  const maxVelocity = reader.positive(limitsInput.maxVelocity, "velocity", "/settings/limits/maxVelocity");
+  if (maxVelocity !== undefined) limits.maxVelocity = maxVelocity;
+  const maxMomentumFlux = reader.positive(
+    limitsInput.maxMomentumFlux,
+    "pressureDifference",
+    "/settings/limits/maxMomentumFlux",
+  );
+  if (maxMomentumFlux !== undefined) limits.maxMomentumFlux = maxMomentumFlux;
+  const minPressure = reader.quantity(limitsInput.minPressure, "pressure", "/settings/limits/minPressure");
+  if (minPressure !== undefined) limits.minPressure = minPressure;
+
+  const settings = {
+    pipeModel: doc.settings?.pipeModel ?? DEFAULT_SETTINGS.pipeModel,
+    tolerance: doc.settings?.tolerance ?? DEFAULT_SETTINGS.tolerance,
+    maxIterations: doc.settings?.maxIterations ?? DEFAULT_SETTINGS.maxIterations,
+    limits,
+  };
+
+  const nodes: CheckedNode[] = doc.nodes.map((node, index) => readNode(node, index, reader));
+  const edges: CheckedEdge[] = doc.edges.map((edge, index) =>
+    readEdge(edge, index, settings.pipeModel, reader),
+  );
+
+  if (reader.issues.length > 0 || gas === undefined) {
+    return { ok: false, issues: sortIssues(reader.issues) };
+  }
+  return {
+    ok: true,
+    document: {
+      name: doc.name ?? "",
+      gas,
+      ambientPressure,
+      ambientTemperature,
+      settings,
+      nodes,
+      edges,
+      notes: reader.notes,
+    },
+  };
+}
+
+function readGas(input: GasInput | undefined, reader: Reader): Gas | undefined {
+  if (input === undefined) return gasPreset("air");
+  const forms = [
+    input.preset !== undefined ? "preset" : undefined,
+    input.molarMass !== undefined || input.gamma !== undefined || input.viscosity !== undefined
+      ? "custom"
+      : undefined,
+    input.components !== undefined ? "components" : undefined,
+  ].filter((form) => form !== undefined);
+  if (forms.length !== 1) {
+    reader.fail({
+      code: "schema",
+      path: "/gas",
+      message:
+        forms.length === 0
+          ? 'give one of "preset", a custom gas ("molarMass", "gamma", "viscosity") or "components"'
+          : `give only one of "preset", a custom gas or "components" (got ${forms.join(" and ")})`,
+    });
+    return undefined;
+  }
+  const presetList = GAS_PRESET_NAMES.join(", ");
+  if (input.preset !== undefined) {
+    if (!isGasPresetName(input.preset)) {
+      reader.fail({
+        code: "schema",
+        path: "/gas/preset",
+        message: `unknown gas "${input.preset}"; presets: ${presetList}`,
+      });
+      return undefined;
+    }
+    return gasPreset(input.preset);
+  }
+  if (input.components !== undefined) {
+    let bad = false;
+    input.components.forEach((component, index) => {
+      if (!isGasPresetName(component.preset)) {
+        reader.fail({
+          code: "schema",
+          path: `/gas/components/${index}/preset`,
+          message: `unknown gas "${component.preset}"; presets: ${presetList}`,
+        });
+        bad = true;
+      }
+    });
+    const sum = input.components.reduce((total, component) => total + component.moleFraction, 0);
+    if (Math.abs(sum - 1) > 1e-6) {
+      reader.fail({
+        code: "value",
+        path: "/gas/components",
+        value: sum,
+        message: `mole fractions must add up to 1 (they add up to ${sum})`,
+      });
+      bad = true;
+    }
+    if (bad) return undefined;
+    return gasMixture(
+      input.components.map((component) => ({
+        gas: gasPreset(component.preset as Parameters<typeof gasPreset>[0]),
+        moleFraction: component.moleFraction,
+      })),
+      input.name ?? "mixture",
+    );
+  }
+  // Custom ideal gas: all three parts are needed.
+  let bad = false;
+  for (const field of ["molarMass", "gamma", "viscosity"] as const) {
+    if (input[field] === undefined) {
+      reader.fail({
+        code: "schema",
+        path: "/gas",
+        message: `a custom gas needs "${field}" (give "molarMass", "gamma" and "viscosity")`,
+      });
+      bad = true;
+    }
+  }
+  if (bad) return undefined;
+  const molarMass = reader.positive(input.molarMass, "molarMass", "/gas/molarMass");
+  const gamma = input.gamma as number;
+  if (!(gamma > 1 && gamma < 2)) {
+    reader.fail({
+      code: "value",
+      path: "/gas/gamma",
+      value: gamma,
+      message: `the heat capacity ratio must lie between 1 and 2 (got ${gamma})`,
+    });
+    bad = true;
+  }
+  const viscosityLaw = readViscosity(input.viscosity as NonNullable<GasInput["viscosity"]>, reader);
+  if (bad || molarMass === undefined || viscosityLaw === undefined) return undefined;
+  return idealGas({
+    name: input.name ?? "custom",
+    molarMass,
+    heatCapacityRatio: gamma,
+    viscosityLaw,
+  });
+}
+
+function readViscosity(
+  input: NonNullable<GasInput["viscosity"]>,
+  reader: Reader,
+): ViscosityLaw | undefined {
+  if (typeof input === "number" || typeof input === "string") {
+    const viscosity = reader.positive(input, "viscosity", "/gas/viscosity");
+    return viscosity === undefined ? undefined : { kind: "constant", viscosity };
+  }
+  const referenceViscosity = reader.positive(
+    input.referenceViscosity,
+    "viscosity",
+    "/gas/viscosity/referenceViscosity",
+  );
+  const referenceTemperature = reader.quantity(
+    input.referenceTemperature,
+    "temperature",
+    "/gas/viscosity/referenceTemperature",
+  );
+  const sutherlandConstant = reader.positive(
+    input.sutherlandConstant,
+    "temperatureDifference",
+    "/gas/viscosity/sutherlandConstant",
+  );
+  if (
+    referenceViscosity === undefined ||
+    referenceTemperature === undefined ||
+    sutherlandConstant === undefined
+  ) {
+    return undefined;
+  }
+  return { kind: "sutherland", referenceViscosity, referenceTemperature, sutherlandConstant };
+}
+
+function readNode(node: NetworkDocument["nodes"][number], index: number, reader: Reader): CheckedNode {
+  const path = jsonPointer("nodes", index);
+  const checked: CheckedNode = { id: node.id, kind: node.kind, demand: 0 };
+  if (node.kind === "reservoir") {
+    const pressure = reader.quantity(node.pressure, "pressure", `${path}/pressure`);
+    if (pressure !== undefined) checked.pressure = pressure;
+    const temperature = reader.quantity(node.temperature, "temperature", `${path}/temperature`);
+    if (temperature !== undefined) checked.temperature = temperature;
+    return checked;
+  }
+  const demand = reader.quantity(node.demand, "massFlow", `${path}/demand`);
+  if (demand !== undefined) checked.demand = demand;
+  const temperature = reader.quantity(node.temperature, "temperature", `${path}/temperature`);
+  if (demand !== undefined && demand < 0) {
+    if (node.temperature === undefined) {
+      reader.fail({
+        code: "schema",
+        path: `${path}/temperature`,
+        message: `an injection (negative demand ${JSON.stringify(node.demand)}) needs the temperature of the injected gas`,
+      });
+    } else if (temperature !== undefined) {
+      checked.temperature = temperature;
+    }
+  } else if (node.temperature !== undefined) {
+    reader.fail({
+      code: "schema",
+      path: `${path}/temperature`,
+      message:
+        "a junction's temperature is solved for; give a temperature only with a negative demand (an injection)",
+    });
+  }
+  return checked;
+}
+
+function readEdge(
+  edge: NetworkDocument["edges"][number],
+  index: number,
+  defaultModel: CheckedEdge["model"],
+  reader: Reader,
+): CheckedEdge {
+  const path = jsonPointer("edges", index);
+  const length = reader.positive(edge.length, "length", `${path}/length`) ?? Number.NaN;
+  const diameter = reader.positive(edge.diameter, "length", `${path}/diameter`) ?? Number.NaN;
+  const checked: CheckedEdge = {
+    id: edge.id,
+    kind: edge.kind,
+    from: edge.from,
+    to: edge.to,
+    length,
+    diameter,
+    minorLoss: edge.minorLoss ?? 0,
+    model: edge.model ?? defaultModel,
+  };
+  if (edge.frictionFactor !== undefined) {
+    checked.frictionFactor = edge.frictionFactor;
+  } else {
+    const roughness =
+      edge.roughness === undefined
+        ? DEFAULT_ROUGHNESS
+        : reader.quantity(edge.roughness, "length", `${path}/roughness`);
+    if (roughness !== undefined) {
+      if (roughness < 0) {
+        reader.fail({
+          code: "value",
+          path: `${path}/roughness`,
+          value: edge.roughness as QuantityInput,
+          message: `must be 0 or more (got ${JSON.stringify(edge.roughness)})`,
+        });
+      } else if (Number.isFinite(diameter) && roughness / diameter > 0.1) {
+        reader.fail({
+          code: "value",
+          path: `${path}/roughness`,
+          value: edge.roughness as QuantityInput,
+          message: `relative roughness ${(roughness / diameter).toPrecision(3)} is beyond the range of the friction correlations (at most 0.1); check the units of roughness and diameter`,
+        });
+      } else {
+        checked.roughness = roughness;
+      }
+    }
+  }
+  if (Number.isFinite(length) && Number.isFinite(diameter) && diameter > length * 1e3) {
+    reader.fail({
+      code: "value",
+      path: `${path}/diameter`,
+      value: edge.diameter,
+      message: `a diameter of ${diameter} m on a pipe ${length} m long is not a pipe; check the units`,
+    });
+  }
+  return checked;
+}

@@ -1,0 +1,539 @@
+/**
+ * Flow through one pipe between two plenums, with the derivatives the network solver needs.
+ *
+ * The upstream plenum holds gas at rest at stagnation pressure p0 and temperature T0; the pipe
+ * discharges into a plenum at static pressure pd <= p0. The result is the mass flow, its partial
+ * derivatives with respect to p0, T0 and pd, whether the pipe is choked, and the stagnation
+ * temperature of the gas arriving downstream.
+ *
+ * Two models (docs/model.md, "Pipe models"):
+ * - adiabatic: isentropic acceleration from the plenum into the pipe inlet, then Fanno flow over
+ *   the friction parameter X = fD L/D + sum K; exit static pressure = pd while subsonic; choked
+ *   when the exit reaches Mach 1 (then p_exit = p* >= pd).
+ * - isothermal: inlet static pressure p0 (the entrance velocity head is neglected), static
+ *   temperature T0 along the pipe, the isothermal friction equation; choked at the exit Mach
+ *   1/sqrt(gamma).
+ *
+ * The friction factor follows the Reynolds number Re = G D / mu(T0), with G the mass flux and the
+ * viscosity at the upstream stagnation temperature, and is converged together with the flow.
+ *
+ * This is the solver's hot path: one reusable output object, no allocation per call.
+ */
+import { darcyFrictionFactor } from "./friction.js";
+import { fannoParameter, machFromFannoParameter } from "./fanno.js";
+
+/** Geometry and friction of one pipe, in SI. */
+export interface PipeGeometry {
+  /** [m] */
+  length: number;
+  /** Inside diameter [m]. */
+  diameter: number;
+  /** Absolute roughness [m] for Colebrook-White; ignored when fixedFrictionFactor is set. */
+  roughness: number;
+  /** A fixed Darcy friction factor [-], or NaN to use Colebrook-White with the roughness. */
+  fixedFrictionFactor: number;
+  /** Sum of minor-loss coefficients K [-], added to fD L/D. */
+  minorLoss: number;
+  model: "adiabatic" | "isothermal";
+}
+
+/** The gas constants a pipe evaluation needs. */
+export interface PipeGas {
+  /** R [J/(kg K)] */
+  specificGasConstant: number;
+  /** gamma [-] */
+  heatCapacityRatio: number;
+  /** mu(T) [Pa s] */
+  viscosity: (temperature: number) => number;
+}
+
+/** Result of one evaluation. Reused between calls: copy what you keep. */
+export class PipeFlowEvaluation {
+  /** Mass flow from the upstream to the downstream plenum [kg/s], >= 0. */
+  massFlow = 0;
+  /** d(massFlow)/d(p0) [kg/(s Pa)] */
+  dMassFlowdUpstreamPressure = 0;
+  /** d(massFlow)/d(T0) [kg/(s K)] */
+  dMassFlowdUpstreamTemperature = 0;
+  /** d(massFlow)/d(pd) [kg/(s Pa)]; 0 when choked. */
+  dMassFlowdDownstreamPressure = 0;
+  /** True when the exit is sonic (adiabatic: Mach 1; isothermal: Mach 1/sqrt(gamma)). */
+  choked = false;
+  /** Largest mass flow the pipe passes for this upstream state [kg/s]. */
+  capacity = 0;
+  /** Mach number at the inlet (just inside the pipe) and at the exit [-]. */
+  inletMach = 0;
+  outletMach = 0;
+  /** Static pressure at the inlet and at the exit [Pa]. */
+  inletPressure = 0;
+  outletPressure = 0;
+  /** Darcy friction factor and Reynolds number at this flow. */
+  frictionFactor = 0;
+  reynolds = 0;
+  /** Stagnation temperature of the gas arriving in the downstream plenum [K]. */
+  arrivalTemperature = 0;
+  /** Its derivatives with respect to p0, T0 and pd. */
+  dArrivalTemperaturedUpstreamPressure = 0;
+  dArrivalTemperaturedUpstreamTemperature = 0;
+  dArrivalTemperaturedDownstreamPressure = 0;
+  /** Warm start for the next call on the same pipe: the last inlet Mach numbers found. */
+  lastInletMach = Number.NaN;
+  lastCapacityInletMach = Number.NaN;
+}
+
+/** Relative step of the central difference used for d(fD)/d(Re) and d(mu)/dT. */
+const DIFFERENCE_STEP = 1e-6;
+
+/** Friction parameter fD L/D + K at a Reynolds number, and its derivative with respect to Re. */
+function frictionParameter(pipe: PipeGeometry, reynolds: number, out: { value: number; slope: number; factor: number }) {
+  const lengthRatio = pipe.length / pipe.diameter;
+  if (!Number.isNaN(pipe.fixedFrictionFactor)) {
+    // A fixed factor holds while it exceeds the laminar value; below that (vanishing flow) the
+    // laminar law takes over so the relation stays smooth and finite at zero flow.
+    const laminar = reynolds > 0 ? 64 / reynolds : Number.POSITIVE_INFINITY;
+    if (pipe.fixedFrictionFactor >= laminar) {
+      out.factor = pipe.fixedFrictionFactor;
+      out.value = out.factor * lengthRatio + pipe.minorLoss;
+      out.slope = 0;
+    } else {
+      out.factor = laminar;
+      out.value = laminar * lengthRatio + pipe.minorLoss;
+      out.slope = (-laminar / reynolds) * lengthRatio;
+    }
+    return;
+  }
+  const relativeRoughness = pipe.roughness / pipe.diameter;
+  const factor = darcyFrictionFactor(reynolds, relativeRoughness);
+  const h = DIFFERENCE_STEP * reynolds;
+  const slope =
+    (darcyFrictionFactor(reynolds + h, relativeRoughness) -
+      darcyFrictionFactor(reynolds - h, relativeRoughness)) /
+    (2 * h);
+  out.factor = factor;
+  out.value = factor * lengthRatio + pipe.minorLoss;
+  out.slope = slope * lengthRatio;
+}
+
+// --- Closed forms of a calorically perfect gas and their logarithmic derivatives -------------
+// Phi(M) = G sqrt(R T0)/p0 (isentropic mass-flux parameter); pi(M) = p/p0; P(M) = p/p* (Fanno);
+// F(M) = fD L*/D (Fanno). Sources and equations: docs/model.md and src/physics/isentropic.ts,
+// src/physics/fanno.ts. Derivatives by hand, checked against differences in the tests.
+
+function massFluxParameterOf(mach: number, gamma: number): number {
+  return mach * Math.sqrt(gamma) * (1 + 0.5 * (gamma - 1) * mach * mach) ** (-(gamma + 1) / (2 * (gamma - 1)));
+}
+/** d ln Phi / dM = 1/M - ((gamma+1)/2) M / (1 + (gamma-1)/2 M^2) */
+function logMassFluxSlope(mach: number, gamma: number): number {
+  return 1 / mach - (0.5 * (gamma + 1) * mach) / (1 + 0.5 * (gamma - 1) * mach * mach);
+}
+/** ln(p/p0) = -(gamma/(gamma-1)) ln(1 + (gamma-1)/2 M^2) */
+function logIsentropicPressure(mach: number, gamma: number): number {
+  return (-gamma / (gamma - 1)) * Math.log1p(0.5 * (gamma - 1) * mach * mach);
+}
+/** d ln(p/p0)/dM = -gamma M / (1 + (gamma-1)/2 M^2) */
+function logIsentropicPressureSlope(mach: number, gamma: number): number {
+  return (-gamma * mach) / (1 + 0.5 * (gamma - 1) * mach * mach);
+}
+/** ln(p/p*) = -ln M + 0.5 ln((gamma+1)/(2 + (gamma-1) M^2)) */
+function logFannoPressure(mach: number, gamma: number): number {
+  return -Math.log(mach) + 0.5 * Math.log((gamma + 1) / (2 + (gamma - 1) * mach * mach));
+}
+/** d ln(p/p*)/dM = -1/M - (gamma-1) M / (2 + (gamma-1) M^2) */
+function logFannoPressureSlope(mach: number, gamma: number): number {
+  return -1 / mach - ((gamma - 1) * mach) / (2 + (gamma - 1) * mach * mach);
+}
+/** dF/dM = -4 (1 - M^2) / (gamma M^3 (2 + (gamma-1) M^2)) */
+function fannoSlope(mach: number, gamma: number): number {
+  return (-4 * (1 - mach * mach)) / (gamma * mach ** 3 * (2 + (gamma - 1) * mach * mach));
+}
+
+/** Scratch for friction results, reused (module-level constants only: no state survives a call). */
+interface FrictionScratch {
+  value: number;
+  slope: number;
+  factor: number;
+}
+
+/**
+ * Evaluate a pipe carrying gas from a plenum at (p0, T0) into a plenum at pd (pd <= p0).
+ * `out` is filled in and returned; its lastInletMach fields warm-start the next call.
+ */
+export function evaluatePipeFlow(
+  pipe: PipeGeometry,
+  gas: PipeGas,
+  upstreamPressure: number,
+  upstreamTemperature: number,
+  downstreamPressure: number,
+  out: PipeFlowEvaluation,
+): PipeFlowEvaluation {
+  if (pipe.model === "isothermal") {
+    evaluateIsothermal(pipe, gas, upstreamPressure, upstreamTemperature, downstreamPressure, out);
+  } else {
+    evaluateAdiabatic(pipe, gas, upstreamPressure, upstreamTemperature, downstreamPressure, out);
+  }
+  return out;
+}
+
+function viscositySlope(gas: PipeGas, temperature: number, viscosity: number): number {
+  const h = DIFFERENCE_STEP * temperature;
+  return (gas.viscosity(temperature + h) - gas.viscosity(temperature - h)) / (2 * h) / viscosity;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Adiabatic: isentropic entrance + Fanno.
+// All states are functions of the inlet Mach number M1 for a given upstream state:
+//   G = Phi(M1) p0 / sqrt(R T0),  Re = G D / mu(T0) = Phi(M1) * reynoldsScale,
+//   X = fD(Re) L/D + K,  F(M2) = F(M1) - X,  p_exit = p0 pi(M1) P(M2)/P(M1).
+// Capacity: F(M1c) = X(M1c), exit Mach 1. Subsonic: ln(p_exit/p0) = ln(pd/p0) solved for M1.
+
+function evaluateAdiabatic(
+  pipe: PipeGeometry,
+  gas: PipeGas,
+  p0: number,
+  t0: number,
+  pd: number,
+  out: PipeFlowEvaluation,
+): void {
+  const gamma = gas.heatCapacityRatio;
+  const r = gas.specificGasConstant;
+  const area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
+  const mu = gas.viscosity(t0);
+  const muSlope = viscositySlope(gas, t0, mu); // d ln mu / dT
+  const sqrtRT = Math.sqrt(r * t0);
+  const fluxScale = p0 / sqrtRT; // G = Phi * fluxScale
+  const reynoldsScale = (fluxScale * pipe.diameter) / mu; // Re = Phi * reynoldsScale
+  const friction: FrictionScratch = { value: 0, slope: 0, factor: 0 };
+
+  out.arrivalTemperature = t0;
+  out.dArrivalTemperaturedUpstreamPressure = 0;
+  out.dArrivalTemperaturedUpstreamTemperature = 1;
+  out.dArrivalTemperaturedDownstreamPressure = 0;
+
+  // Capacity: solve h(M) = F(M) - X(M) = 0 on (0, 1] by safeguarded Newton.
+  const capacityMach = adiabaticCapacityMach(pipe, gamma, reynoldsScale, out.lastCapacityInletMach, friction);
+  out.lastCapacityInletMach = capacityMach;
+  const phiCapacity = massFluxParameterOf(capacityMach, gamma);
+  out.capacity = phiCapacity * fluxScale * area;
+  const logChokedExitRatio =
+    logIsentropicPressure(capacityMach, gamma) - logFannoPressure(capacityMach, gamma);
+
+  if (pd >= p0) {
+    setZeroFlowAdiabatic(pipe, gas, p0, t0, mu, area, out);
+    return;
+  }
+  const targetLogRatio = Math.log(pd / p0);
+  if (targetLogRatio <= logChokedExitRatio) {
+    // Choked: flow set by the upstream state alone.
+    frictionParameter(pipe, phiCapacity * reynoldsScale, friction);
+    out.choked = true;
+    out.massFlow = out.capacity;
+    out.inletMach = capacityMach;
+    out.outletMach = 1;
+    out.inletPressure = p0 * Math.exp(logIsentropicPressure(capacityMach, gamma));
+    out.outletPressure = p0 * Math.exp(logChokedExitRatio);
+    out.frictionFactor = friction.factor;
+    out.reynolds = phiCapacity * reynoldsScale;
+    // dh = 0: (F'(M) - X_Re Re Phi'/Phi) dM - X_Re Re d ln(reynoldsScale) = 0
+    const reynolds = out.reynolds;
+    const phiLogSlope = logMassFluxSlope(capacityMach, gamma);
+    const hMach = fannoSlope(capacityMach, gamma) - friction.slope * reynolds * phiLogSlope;
+    const machPerLogScale = (friction.slope * reynolds) / hMach;
+    // d ln(reynoldsScale) = d ln p0 - (1/(2 T0) + mu'/mu) dT0
+    const dLogScaledP0 = 1 / p0;
+    const dLogScaledT0 = -0.5 / t0 - muSlope;
+    const dLogFluxdP0 = 1 / p0;
+    const dLogFluxdT0 = -0.5 / t0;
+    out.dMassFlowdUpstreamPressure =
+      out.massFlow * (dLogFluxdP0 + phiLogSlope * machPerLogScale * dLogScaledP0);
+    out.dMassFlowdUpstreamTemperature =
+      out.massFlow * (dLogFluxdT0 + phiLogSlope * machPerLogScale * dLogScaledT0);
+    out.dMassFlowdDownstreamPressure = 0;
+    return;
+  }
+
+  // Subsonic exit: g(M1) = ln(p_exit/p0) - ln(pd/p0) = 0 on (0, M1c).
+  let lo = 0;
+  let hi = capacityMach;
+  let mach = out.lastInletMach;
+  if (!(mach > 0 && mach < hi)) {
+    // Low-Mach estimate: 1 - pd/p0 ~ (gamma/2) M^2 (1 + X) with X at a turbulent guess.
+    frictionParameter(pipe, Math.max(0.5 * hi * reynoldsScale, 1), friction);
+    mach = Math.min(0.9 * hi, Math.sqrt((-2 * targetLogRatio) / (gamma * (1 + friction.value))));
+  }
+  let logRatio = 0;
+  let slope = 0;
+  let exitMach = 0;
+  for (let iteration = 0; iteration < 100; iteration++) {
+    const reynolds = massFluxParameterOf(mach, gamma) * reynoldsScale;
+    frictionParameter(pipe, reynolds, friction);
+    const remaining = fannoParameter(mach, gamma) - friction.value;
+    if (!(remaining > 0)) {
+      // Beyond this pipe's capacity at this M1: the root lies below.
+      hi = mach;
+      mach = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
+      continue;
+    }
+    exitMach = machFromFannoParameter(remaining, gamma, "subsonic");
+    logRatio =
+      logIsentropicPressure(mach, gamma) - logFannoPressure(mach, gamma) + logFannoPressure(exitMach, gamma);
+    const g = logRatio - targetLogRatio;
+    if (g > 0) lo = mach;
+    else hi = mach;
+    // dg/dM1 with the friction parameter following Re(M1).
+    const dRemaining =
+      fannoSlope(mach, gamma) - friction.slope * reynolds * logMassFluxSlope(mach, gamma);
+    const dExitMach = dRemaining / fannoSlope(exitMach, gamma);
+    slope =
+      logIsentropicPressureSlope(mach, gamma) -
+      logFannoPressureSlope(mach, gamma) +
+      logFannoPressureSlope(exitMach, gamma) * dExitMach;
+    let next = mach - g / slope;
+    if (!(next > lo && next < hi)) next = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
+    const change = Math.abs(next - mach);
+    mach = next;
+    if (change <= 1e-14 * mach || Math.abs(g) < 1e-15) break;
+  }
+  // Final state at the converged M1 (recomputed so every output belongs to one M1).
+  const reynolds = massFluxParameterOf(mach, gamma) * reynoldsScale;
+  frictionParameter(pipe, reynolds, friction);
+  const remaining = Math.max(fannoParameter(mach, gamma) - friction.value, 0);
+  exitMach = machFromFannoParameter(remaining, gamma, "subsonic");
+  const phi = massFluxParameterOf(mach, gamma);
+  out.lastInletMach = mach;
+  out.choked = false;
+  out.massFlow = phi * fluxScale * area;
+  out.inletMach = mach;
+  out.outletMach = exitMach;
+  out.inletPressure = p0 * Math.exp(logIsentropicPressure(mach, gamma));
+  out.outletPressure = pd;
+  out.frictionFactor = friction.factor;
+  out.reynolds = reynolds;
+
+  // Implicit derivatives. g(M1; p0, T0, pd) = ln r(M1, X(Re)) - ln(pd/p0), Re = Phi(M1) scale.
+  const phiLogSlope = logMassFluxSlope(mach, gamma);
+  const exitFannoSlope = fannoSlope(exitMach, gamma);
+  const dLogRatiodX = -logFannoPressureSlope(exitMach, gamma) / exitFannoSlope; // at fixed M1
+  const dXdLogScale = friction.slope * reynolds; // dX / d ln(reynoldsScale) at fixed M1
+  const gMach =
+    logIsentropicPressureSlope(mach, gamma) -
+    logFannoPressureSlope(mach, gamma) +
+    (logFannoPressureSlope(exitMach, gamma) *
+      (fannoSlope(mach, gamma) - dXdLogScale * phiLogSlope)) /
+      exitFannoSlope;
+  const gP0 = dLogRatiodX * dXdLogScale * (1 / p0) + 1 / p0;
+  const gT0 = dLogRatiodX * dXdLogScale * (-0.5 / t0 - muSlope);
+  const gPd = -1 / pd;
+  const massFlow = out.massFlow;
+  out.dMassFlowdUpstreamPressure = massFlow * (1 / p0 - (phiLogSlope * gP0) / gMach);
+  out.dMassFlowdUpstreamTemperature = massFlow * (-0.5 / t0 - (phiLogSlope * gT0) / gMach);
+  out.dMassFlowdDownstreamPressure = massFlow * (-(phiLogSlope * gPd) / gMach);
+}
+
+/** Inlet Mach number at which the pipe chokes: F(M) = X(Re(M)). */
+function adiabaticCapacityMach(
+  pipe: PipeGeometry,
+  gamma: number,
+  reynoldsScale: number,
+  guess: number,
+  friction: FrictionScratch,
+): number {
+  let lo = 0;
+  let hi = 1;
+  let mach = guess;
+  if (!(mach > 0 && mach < 1)) {
+    frictionParameter(pipe, Math.max(0.3 * reynoldsScale, 1), friction);
+    mach = friction.value > 0 ? machFromFannoParameter(friction.value, gamma, "subsonic") : 1;
+  }
+  for (let iteration = 0; iteration < 100; iteration++) {
+    const reynolds = massFluxParameterOf(mach, gamma) * reynoldsScale;
+    frictionParameter(pipe, reynolds, friction);
+    if (friction.value <= 0) return 1;
+    const h = fannoParameter(mach, gamma) - friction.value;
+    if (h > 0) lo = mach;
+    else hi = mach;
+    const slope = fannoSlope(mach, gamma) - friction.slope * reynolds * logMassFluxSlope(mach, gamma);
+    let next = slope < 0 ? mach - h / slope : Number.NaN;
+    if (!(next > lo && next < hi)) next = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
+    const change = Math.abs(next - mach);
+    mach = next;
+    if (change <= 1e-14 * mach) break;
+  }
+  return mach;
+}
+
+/** No flow (pd = p0): zero mass flow with the laminar (Hagen-Poiseuille) slope. */
+function setZeroFlowAdiabatic(
+  pipe: PipeGeometry,
+  gas: PipeGas,
+  p0: number,
+  t0: number,
+  mu: number,
+  area: number,
+  out: PipeFlowEvaluation,
+): void {
+  // m = rho D^2 A (p0 - pd) / (32 mu L) as the flow vanishes (64/Re friction dominates K).
+  const density = p0 / (gas.specificGasConstant * t0);
+  const conductance = (density * pipe.diameter * pipe.diameter * area) / (32 * mu * pipe.length);
+  out.choked = false;
+  out.massFlow = 0;
+  out.dMassFlowdUpstreamPressure = conductance;
+  out.dMassFlowdUpstreamTemperature = 0;
+  out.dMassFlowdDownstreamPressure = -conductance;
+  out.inletMach = 0;
+  out.outletMach = 0;
+  out.inletPressure = p0;
+  out.outletPressure = p0;
+  out.reynolds = 0;
+  out.frictionFactor = Number.isNaN(pipe.fixedFrictionFactor) ? 0 : pipe.fixedFrictionFactor;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Isothermal: Q(G) = G^2 R T (X(Re) + 2 ln(p1/pd)) - (p1^2 - pd^2) = 0, p1 = p0, T = T0.
+// Capacity: r = p2*/p1 with r^2 (X + 1 - 2 ln r) = 1, G* = p2* / sqrt(R T).
+
+function evaluateIsothermal(
+  pipe: PipeGeometry,
+  gas: PipeGas,
+  p1: number,
+  t: number,
+  pd: number,
+  out: PipeFlowEvaluation,
+): void {
+  const gamma = gas.heatCapacityRatio;
+  const r = gas.specificGasConstant;
+  const area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
+  const mu = gas.viscosity(t);
+  const muSlope = viscositySlope(gas, t, mu);
+  const rt = r * t;
+  const sqrtRT = Math.sqrt(rt);
+  const reynoldsPerFlux = pipe.diameter / mu;
+  const friction: FrictionScratch = { value: 0, slope: 0, factor: 0 };
+  const half = 0.5 * (gamma - 1);
+
+  // Capacity: Newton on r with X following Re(G*(r)).
+  let ratio = out.lastCapacityInletMach; // stores r* for this model
+  if (!(ratio > 0 && ratio < 1)) ratio = 0.5;
+  let lo = 0;
+  let hi = 1;
+  for (let iteration = 0; iteration < 100; iteration++) {
+    const flux = (p1 * ratio) / sqrtRT;
+    const reynolds = flux * reynoldsPerFlux;
+    frictionParameter(pipe, reynolds, friction);
+    const value = ratio * ratio * (friction.value + 1 - 2 * Math.log(ratio)) - 1;
+    if (value > 0) hi = ratio;
+    else lo = ratio;
+    // d/dr with X(Re(r)): 2r(X - 2 ln r) + r^2 X_Re Re / r
+    const slope = 2 * ratio * (friction.value - 2 * Math.log(ratio)) + ratio * friction.slope * reynolds;
+    let next = ratio - value / slope;
+    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    const change = Math.abs(next - ratio);
+    ratio = next;
+    if (change <= 1e-15) break;
+  }
+  out.lastCapacityInletMach = ratio;
+  const chokedFlux = (p1 * ratio) / sqrtRT;
+  out.capacity = chokedFlux * area;
+  const chokedExitPressure = p1 * ratio;
+  const limitingMach = 1 / Math.sqrt(gamma);
+
+  if (pd >= p1) {
+    const conductance = (pipe.diameter * pipe.diameter * area * p1) / (32 * mu * pipe.length * rt);
+    out.choked = false;
+    out.massFlow = 0;
+    out.dMassFlowdUpstreamPressure = conductance;
+    out.dMassFlowdUpstreamTemperature = 0;
+    out.dMassFlowdDownstreamPressure = -conductance;
+    out.inletMach = 0;
+    out.outletMach = 0;
+    out.inletPressure = p1;
+    out.outletPressure = p1;
+    out.reynolds = 0;
+    out.frictionFactor = Number.isNaN(pipe.fixedFrictionFactor) ? 0 : pipe.fixedFrictionFactor;
+    out.arrivalTemperature = t;
+    out.dArrivalTemperaturedUpstreamPressure = 0;
+    out.dArrivalTemperaturedUpstreamTemperature = 1;
+    out.dArrivalTemperaturedDownstreamPressure = 0;
+    return;
+  }
+
+  if (pd <= chokedExitPressure) {
+    frictionParameter(pipe, chokedFlux * reynoldsPerFlux, friction);
+    out.choked = true;
+    out.massFlow = out.capacity;
+    out.inletMach = (chokedFlux * sqrtRT) / (p1 * Math.sqrt(gamma));
+    out.outletMach = limitingMach;
+    out.inletPressure = p1;
+    out.outletPressure = chokedExitPressure;
+    out.frictionFactor = friction.factor;
+    out.reynolds = chokedFlux * reynoldsPerFlux;
+    // d ln r = a (d ln G* - mu'/mu dT), a = (dr/dX / r) X_Re Re; d ln G* = d ln p1 - dT/(2T) + d ln r
+    const logRatio = Math.log(ratio);
+    const drdXOverR = -1 / (2 * (friction.value - 2 * logRatio));
+    const a = drdXOverR * friction.slope * out.reynolds;
+    const dLogRdP1 = (a * (1 / p1)) / (1 - a);
+    const dLogRdT = (a * (-0.5 / t - muSlope)) / (1 - a);
+    out.dMassFlowdUpstreamPressure = out.massFlow * (1 / p1 + dLogRdP1);
+    out.dMassFlowdUpstreamTemperature = out.massFlow * (-0.5 / t + dLogRdT);
+    out.dMassFlowdDownstreamPressure = 0;
+    out.arrivalTemperature = t * (1 + half * limitingMach * limitingMach);
+    out.dArrivalTemperaturedUpstreamPressure = 0;
+    out.dArrivalTemperaturedUpstreamTemperature = 1 + half * limitingMach * limitingMach;
+    out.dArrivalTemperaturedDownstreamPressure = 0;
+    return;
+  }
+
+  // Subsonic: Newton on G in [0, G*].
+  const logPressureRatio = Math.log(p1 / pd);
+  const pressureSquares = (p1 - pd) * (p1 + pd);
+  let flux = out.lastInletMach; // stores G for this model
+  let fluxLo = 0;
+  let fluxHi = chokedFlux;
+  if (!(flux > 0 && flux < fluxHi)) {
+    frictionParameter(pipe, Math.max(0.5 * chokedFlux * reynoldsPerFlux, 1), friction);
+    flux = Math.min(0.9 * fluxHi, Math.sqrt(pressureSquares / (rt * (friction.value + 2 * logPressureRatio))));
+  }
+  for (let iteration = 0; iteration < 100; iteration++) {
+    const reynolds = flux * reynoldsPerFlux;
+    frictionParameter(pipe, reynolds, friction);
+    const q = flux * flux * rt * (friction.value + 2 * logPressureRatio) - pressureSquares;
+    if (q > 0) fluxHi = flux;
+    else fluxLo = flux;
+    const slope = 2 * flux * rt * (friction.value + 2 * logPressureRatio) + flux * rt * friction.slope * reynolds;
+    let next = flux - q / slope;
+    if (!(next > fluxLo && next < fluxHi)) next = 0.5 * (fluxLo + fluxHi);
+    const change = Math.abs(next - flux);
+    flux = next;
+    if (change <= 1e-14 * flux) break;
+  }
+  const reynolds = flux * reynoldsPerFlux;
+  frictionParameter(pipe, reynolds, friction);
+  out.lastInletMach = flux;
+  out.choked = false;
+  out.massFlow = flux * area;
+  out.inletMach = (flux * sqrtRT) / (p1 * Math.sqrt(gamma));
+  out.outletMach = (flux * sqrtRT) / (pd * Math.sqrt(gamma));
+  out.inletPressure = p1;
+  out.outletPressure = pd;
+  out.frictionFactor = friction.factor;
+  out.reynolds = reynolds;
+  // Implicit derivatives of Q(G; p1, T, pd) = 0.
+  const xTotal = friction.value + 2 * logPressureRatio;
+  const qG = 2 * flux * rt * xTotal + flux * rt * friction.slope * reynolds;
+  const qP1 = flux * flux * rt * (2 / p1) - 2 * p1;
+  const qPd = flux * flux * rt * (-2 / pd) + 2 * pd;
+  const qT = flux * flux * r * xTotal + flux * flux * rt * friction.slope * reynolds * -muSlope;
+  const dFluxdP1 = -qP1 / qG;
+  const dFluxdPd = -qPd / qG;
+  const dFluxdT = -qT / qG;
+  out.dMassFlowdUpstreamPressure = dFluxdP1 * area;
+  out.dMassFlowdUpstreamTemperature = dFluxdT * area;
+  out.dMassFlowdDownstreamPressure = dFluxdPd * area;
+  // Arrival stagnation temperature T (1 + (gamma-1)/2 M2^2), M2 = G sqrt(RT) / (pd sqrt(gamma)).
+  const m2 = out.outletMach;
+  const factor = 1 + half * m2 * m2;
+  const dTa_dLogM = 2 * t * half * m2 * m2;
+  out.arrivalTemperature = t * factor;
+  out.dArrivalTemperaturedUpstreamPressure = dTa_dLogM * (dFluxdP1 / flux);
+  out.dArrivalTemperaturedUpstreamTemperature = factor + dTa_dLogM * (dFluxdT / flux + 0.5 / t);
+  out.dArrivalTemperaturedDownstreamPressure = dTa_dLogM * (dFluxdPd / flux - 1 / pd);
+}

@@ -1,0 +1,237 @@
+/**
+ * Solver state -> per-node and per-edge results, the network balance recomputed independently
+ * of the solver, and the design-limit warnings.
+ */
+import type { DesignLimits } from "../input/document-types.js";
+import { endStatesOf, pipeOutlet } from "../physics/pipe.js";
+import { evaluatePipeFlow, PipeFlowEvaluation, type PipeGeometry } from "../physics/pipe-flow.js";
+import {
+  type NetworkSystem,
+  networkThroughput,
+  nodePressure,
+  nodeTemperature,
+} from "../solve/network-system.js";
+import type { EdgeResult, NetworkBalance, NodeResult, SolverWarning } from "./result-types.js";
+
+/** Results of the nodes and edges at a state, with the balance recomputed from scratch. */
+export interface StateResults {
+  nodes: NodeResult[];
+  edges: EdgeResult[];
+  balance: NetworkBalance;
+  /** Junctions that no gas flows through. */
+  noFlowJunctions: number[];
+}
+
+/**
+ * Evaluate every edge afresh at the final state (no warm start from the solver) and collect the
+ * results, then recompute mass and energy balance at every junction and the exit pressure of every
+ * subsonic edge from its flow (the inverse pipe relation): a check independent of the Newton
+ * residuals.
+ */
+export function resultsAtState(system: NetworkSystem, x: Float64Array): StateResults {
+  const { model } = system;
+  const doc = model.document;
+  const gas = doc.gas;
+  const cp = gas.specificHeatCp;
+  const nodeCount = doc.nodes.length;
+  const netOutflow = new Float64Array(nodeCount);
+  const inflowMagnitude = new Float64Array(nodeCount);
+  const enthalpyArriving = new Float64Array(nodeCount);
+  const edges: EdgeResult[] = [];
+  let heatIn = 0;
+  let largestExitPressureMismatch = 0;
+
+  doc.edges.forEach((edge, e) => {
+    const from = model.edgeFrom[e] as number;
+    const to = model.edgeTo[e] as number;
+    const pFrom = nodePressure(system, x, from);
+    const pTo = nodePressure(system, x, to);
+    const forward = pFrom >= pTo;
+    const upstream = forward ? from : to;
+    const downstream = forward ? to : from;
+    const pUp = forward ? pFrom : pTo;
+    const pDown = forward ? pTo : pFrom;
+    const tUp = nodeTemperature(system, x, upstream);
+    const pipe = system.pipes[e] as PipeGeometry;
+    const evaluation = evaluatePipeFlow(pipe, system.gas, pUp, tUp, pDown, new PipeFlowEvaluation());
+    const flow = evaluation.massFlow;
+    const signed = forward ? flow : -flow;
+    netOutflow[from] = (netOutflow[from] as number) + signed;
+    netOutflow[to] = (netOutflow[to] as number) - signed;
+    inflowMagnitude[downstream] = (inflowMagnitude[downstream] as number) + flow;
+    enthalpyArriving[downstream] = (enthalpyArriving[downstream] as number) + flow * cp * evaluation.arrivalTemperature;
+    heatIn += flow * cp * (evaluation.arrivalTemperature - tUp);
+
+    if (!evaluation.choked && flow > 0) {
+      // Independent check: the inverse relation must put this flow's exit at the node pressure.
+      const inverse = pipeOutlet(
+        gas,
+        {
+          length: pipe.length,
+          diameter: pipe.diameter,
+          roughness: pipe.roughness,
+          ...(Number.isNaN(pipe.fixedFrictionFactor) ? {} : { frictionFactor: pipe.fixedFrictionFactor }),
+          minorLoss: pipe.minorLoss,
+          model: pipe.model,
+        },
+        { pressure: pUp, temperature: tUp },
+        flow,
+      );
+      const exitPressure = inverse.ok ? inverse.flow.outlet.pressure : inverse.chokedOutletPressure;
+      const mismatch = Math.abs(exitPressure - pDown) / pDown;
+      largestExitPressureMismatch = Math.max(largestExitPressureMismatch, mismatch);
+    }
+
+    const ends = endStatesOf(system.gas, pipe.model, tUp, evaluation);
+    edges.push({
+      id: edge.id,
+      kind: edge.kind,
+      from: edge.from,
+      to: edge.to,
+      model: pipe.model,
+      massFlow: signed === 0 ? 0 : signed,
+      choked: evaluation.choked,
+      chokeRatio: evaluation.choked ? 1 : evaluation.capacity > 0 ? flow / evaluation.capacity : 0,
+      capacity: evaluation.capacity,
+      reynolds: evaluation.reynolds,
+      frictionFactor: evaluation.frictionFactor,
+      inlet: ends.inlet,
+      outlet: ends.outlet,
+      pressureDrop: pUp - pDown,
+    });
+  });
+
+  const throughput = networkThroughput(system, netOutflow);
+  const temperatureReference = system.temperatureScale;
+  let massIn = 0;
+  let massOut = 0;
+  let enthalpyIn = 0;
+  let enthalpyOut = 0;
+  let largestMassImbalance = 0;
+  let largestEnergyImbalance = 0;
+  const nodes: NodeResult[] = [];
+  const noFlowJunctions: number[] = [];
+  doc.nodes.forEach((node, index) => {
+    const pressure = nodePressure(system, x, index);
+    const temperature = nodeTemperature(system, x, index);
+    if (node.kind === "reservoir") {
+      const supplied = netOutflow[index] as number; // into the edges
+      if (supplied > 0) {
+        massIn += supplied;
+        enthalpyIn += supplied * cp * temperature;
+      } else {
+        massOut += -supplied;
+        enthalpyOut += enthalpyArriving[index] as number;
+      }
+      nodes.push({ id: node.id, kind: node.kind, pressure, temperature, demand: supplied === 0 ? 0 : -supplied });
+      return;
+    }
+    const demand = node.demand;
+    const injection = demand < 0 ? -demand : 0;
+    const delivered = demand > 0 ? demand : 0;
+    massIn += injection;
+    massOut += delivered;
+    const injectedEnthalpy =
+      injection > 0 ? injection * cp * (system.injectionTemperature[index] as number) : 0;
+    enthalpyIn += injectedEnthalpy;
+    enthalpyOut += delivered * cp * temperature;
+    const massImbalance = -(netOutflow[index] as number) - demand;
+    largestMassImbalance = Math.max(largestMassImbalance, Math.abs(massImbalance) / throughput);
+    // Enthalpy balance at the junction: arriving + injected = leaving through edges + delivered.
+    const leaving = (netOutflow[index] as number) + (inflowMagnitude[index] as number) + delivered;
+    const energyImbalance =
+      (enthalpyArriving[index] as number) + injectedEnthalpy - leaving * cp * temperature;
+    largestEnergyImbalance = Math.max(
+      largestEnergyImbalance,
+      Math.abs(energyImbalance) / (throughput * cp * temperatureReference),
+    );
+    if ((inflowMagnitude[index] as number) === 0 && injection === 0) noFlowJunctions.push(index);
+    nodes.push({ id: node.id, kind: node.kind, pressure, temperature, demand });
+  });
+
+  return {
+    nodes,
+    edges,
+    noFlowJunctions,
+    balance: {
+      throughput,
+      massIn,
+      massOut,
+      enthalpyIn,
+      enthalpyOut,
+      heatIn,
+      largestMassImbalance,
+      largestEnergyImbalance,
+      largestExitPressureMismatch,
+    },
+  };
+}
+
+/** Default design limits, common practice (docs/model.md, "Design checks"). */
+export const DEFAULT_LIMITS: Readonly<DesignLimits> = Object.freeze({
+  maxMach: 0.5,
+  maxMomentumFlux: 200_000,
+});
+
+/** Warnings for choked edges, junctions without flow and exceeded design limits. */
+export function designWarnings(
+  results: StateResults,
+  limits: DesignLimits,
+  system: NetworkSystem,
+): SolverWarning[] {
+  const warnings: SolverWarning[] = [];
+  for (const edge of results.edges) {
+    if (edge.choked) {
+      warnings.push({
+        code: "choked",
+        edge: edge.id,
+        message: `edge ${edge.id} is choked: exit Mach ${edge.outlet.mach.toFixed(3)}, flow ${Math.abs(edge.massFlow).toPrecision(4)} kg/s set by its upstream state; exit pressure ${edge.outlet.pressure.toPrecision(6)} Pa is above the downstream node's`,
+      });
+    }
+    const mach = Math.max(edge.inlet.mach, edge.outlet.mach);
+    if (limits.maxMach !== undefined && mach > limits.maxMach) {
+      warnings.push({
+        code: "limit-mach",
+        edge: edge.id,
+        message: `edge ${edge.id}: Mach ${mach.toFixed(3)} exceeds the limit ${limits.maxMach}`,
+      });
+    }
+    const velocity = Math.max(edge.inlet.velocity, edge.outlet.velocity);
+    if (limits.maxVelocity !== undefined && velocity > limits.maxVelocity) {
+      warnings.push({
+        code: "limit-velocity",
+        edge: edge.id,
+        message: `edge ${edge.id}: velocity ${velocity.toPrecision(4)} m/s exceeds the limit ${limits.maxVelocity} m/s`,
+      });
+    }
+    const momentumFlux = Math.max(
+      edge.inlet.density * edge.inlet.velocity ** 2,
+      edge.outlet.density * edge.outlet.velocity ** 2,
+    );
+    if (limits.maxMomentumFlux !== undefined && momentumFlux > limits.maxMomentumFlux) {
+      warnings.push({
+        code: "limit-momentum-flux",
+        edge: edge.id,
+        message: `edge ${edge.id}: rho v^2 ${momentumFlux.toPrecision(4)} Pa exceeds the limit ${limits.maxMomentumFlux} Pa`,
+      });
+    }
+  }
+  for (const node of results.nodes) {
+    if (node.kind === "junction" && limits.minPressure !== undefined && node.pressure < limits.minPressure) {
+      warnings.push({
+        code: "limit-pressure",
+        node: node.id,
+        message: `node ${node.id}: pressure ${node.pressure.toPrecision(6)} Pa is below the limit ${limits.minPressure} Pa`,
+      });
+    }
+  }
+  for (const index of results.noFlowJunctions) {
+    const node = results.nodes[index] as NodeResult;
+    warnings.push({
+      code: "no-flow",
+      node: node.id,
+      message: `no gas flows through junction ${node.id}; its temperature is reported as the ambient ${system.ambientTemperature.toFixed(2)} K`,
+    });
+  }
+  return warnings;
+}

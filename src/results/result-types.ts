@@ -1,0 +1,131 @@
+/**
+ * The results contract of a network solve. All numbers SI: Pa absolute, K, kg/s, m/s, kg/m3.
+ * Extend it; do not rename it.
+ */
+import type { PipeEndState } from "../physics/pipe.js";
+
+export type { PipeEndState };
+
+/** Codes of the warnings a result can carry. */
+export type WarningCode =
+  /** A bare "bar" or "psi" was read as absolute. */
+  | "bare-pressure-unit-absolute"
+  /** No gas flows through this junction: its temperature is the ambient temperature. */
+  | "no-flow"
+  /** The edge is choked: its flow is set by its upstream state alone. */
+  | "choked"
+  /** A design limit is exceeded. */
+  | "limit-mach"
+  | "limit-velocity"
+  | "limit-momentum-flux"
+  | "limit-pressure"
+  /** The solve did not converge or has no solution (see `status`). */
+  | "not-converged"
+  | "no-solution"
+  /** A solution reached by ramping the demands up from a smaller case. */
+  | "continuation";
+
+/** A warning attached to a result, naming the node or edge it is about. */
+export interface SolverWarning {
+  code: WarningCode;
+  message: string;
+  node?: string;
+  edge?: string;
+}
+
+/** Result for one node. */
+export interface NodeResult {
+  id: string;
+  kind: "reservoir" | "junction";
+  /** Pressure [Pa absolute]: static = stagnation, gas at rest in the node. */
+  pressure: number;
+  /** Stagnation temperature of the gas in the node [K]. */
+  temperature: number;
+  /** External mass flow leaving the network here [kg/s]; for a reservoir, what it takes from the
+   * network (negative when it supplies). */
+  demand: number;
+}
+
+/** Result for one edge. */
+export interface EdgeResult {
+  id: string;
+  kind: "pipe";
+  from: string;
+  to: string;
+  /** Pipe model used. */
+  model: "adiabatic" | "isothermal";
+  /** [kg/s], positive from `from` to `to`. */
+  massFlow: number;
+  choked: boolean;
+  /** |massFlow| / capacity for the present upstream state [-]; 1 when choked. */
+  chokeRatio: number;
+  /** Largest flow the edge passes for its present upstream state [kg/s]. */
+  capacity: number;
+  /** Reynolds number G D / mu(T0 upstream) [-]. */
+  reynolds: number;
+  /** Darcy friction factor [-]. */
+  frictionFactor: number;
+  /** State just inside the pipe at its upstream end (in the direction of flow). */
+  inlet: PipeEndState;
+  /** State at its downstream end (in the direction of flow). */
+  outlet: PipeEndState;
+  /** Pressure of the upstream node minus that of the downstream node [Pa], >= 0. */
+  pressureDrop: number;
+}
+
+/** How the solve ended. */
+export type SolveStatus = "converged" | "not-converged" | "no-solution";
+
+/** Diagnosis of a network with no solution. */
+export interface NoSolutionDiagnosis {
+  /** Largest fraction of the stated demands for which a solution was found (0 if none). */
+  largestFeasibleDemandScale: number;
+  /** Edges choked at that largest solved case, with their capacity [kg/s]. */
+  limitingEdges: { id: string; capacity: number; massFlow: number }[];
+  /** Junction equations that did not close at the best iterate, worst first (up to 10). */
+  openEquations: { node: string; equation: "mass" | "energy"; residual: number }[];
+  message: string;
+}
+
+/** Balance of the whole network, from the final state. */
+export interface NetworkBalance {
+  /** Throughput W: half the sum of the absolute external flows [kg/s]. */
+  throughput: number;
+  /** Total mass flow supplied by reservoirs and injections [kg/s]. */
+  massIn: number;
+  /** Total mass flow delivered to demands and taken by reservoirs [kg/s]. */
+  massOut: number;
+  /** Stagnation enthalpy flow in and out, relative to 0 K (cp T) [W]. */
+  enthalpyIn: number;
+  enthalpyOut: number;
+  /** Heat taken up by the gas in the pipes [W] (isothermal pipes; 0 when all are adiabatic). */
+  heatIn: number;
+  /** Largest mass imbalance of any junction over W, and of energy over W cp T_ref. */
+  largestMassImbalance: number;
+  largestEnergyImbalance: number;
+  /** Largest mismatch between a subsonic edge's exit pressure (recomputed from its flow) and its
+   * downstream node pressure, over that pressure. */
+  largestExitPressureMismatch: number;
+}
+
+/** The result of a network solve. */
+export interface NetworkResult {
+  converged: boolean;
+  status: SolveStatus;
+  iterations: number;
+  /** Largest scaled residual (mass over W; energy over W T_ref). */
+  residual: number;
+  residuals: { mass: number; energy: number };
+  warnings: SolverWarning[];
+  nodes: NodeResult[];
+  edges: EdgeResult[];
+  balance: NetworkBalance;
+  /** Present when status is "no-solution". */
+  diagnosis?: NoSolutionDiagnosis;
+  /** Name from the document. */
+  name: string;
+  /** The gas, as used. */
+  gas: { name: string; molarMass: number; heatCapacityRatio: number; specificGasConstant: number; specificHeatCp: number };
+  /** Ambient state the gauge pressures were read against. */
+  ambient: { pressure: number; temperature: number };
+}

@@ -1,0 +1,173 @@
+/**
+ * A first guess for Newton: node pressures from a few rounds of the linearised p-squared law
+ * (the "linear theory" of network analysis), then junction temperatures from the mixing balance
+ * with those flows. Both are sparse linear solves on the Jacobian's own structure.
+ *
+ * p-squared law of an edge (isothermal ideal gas at low Mach, the logarithmic term dropped):
+ *   p_u^2 - p_d^2 = k m |m|,  k = R T (fD L/D + K) / A^2.
+ * Each round freezes |m| and solves the resulting linear network for P = p^2; |m| is then
+ * averaged with the new flows (damping that keeps the rounds from oscillating).
+ */
+import { darcyFrictionFactor } from "../physics/friction.js";
+import type { NetworkSystem } from "./network-system.js";
+import { NO_FLOW_WEIGHT } from "./network-system.js";
+import { factorBlockMatrix, solveFactored } from "./sparse-block-lu.js";
+
+/** Number of linear-theory rounds. */
+const ROUNDS = 8;
+
+/** Scaled unknowns of a first guess, 2 per junction [p / pScale, T / TScale]. */
+export function initialGuess(system: NetworkSystem): Float64Array {
+  const { model, edgeCount, junctionCount, structure } = system;
+  const gas = system.gas;
+  const nodeCount = model.document.nodes.length;
+  const supplyTemperature = meanSupplyTemperature(system);
+  const rt = gas.specificGasConstant * supplyTemperature;
+
+  // P = p^2 at reservoirs; range of the fixed levels.
+  let pMax = 0;
+  let pMin = Number.POSITIVE_INFINITY;
+  for (let node = 0; node < nodeCount; node++) {
+    if (model.isReservoir[node] === 1) {
+      const p = system.fixedPressure[node] as number;
+      pMax = Math.max(pMax, p);
+      pMin = Math.min(pMin, p);
+    }
+  }
+  const squaredScale = pMax * pMax;
+
+  const resistance = new Float64Array(edgeCount);
+  const flowMagnitude = new Float64Array(edgeCount);
+  const signedFlow = new Float64Array(edgeCount);
+  for (let e = 0; e < edgeCount; e++) {
+    const pipe = system.pipes[e];
+    if (pipe === undefined) continue;
+    const area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
+    const factor = Number.isNaN(pipe.fixedFrictionFactor)
+      ? darcyFrictionFactor(1e6, pipe.roughness / pipe.diameter)
+      : pipe.fixedFrictionFactor;
+    resistance[e] = (rt * (factor * (pipe.length / pipe.diameter) + pipe.minorLoss + 1)) / (area * area);
+    // Flow that a 10 % drop of p^2 across this edge alone would carry: the edge's own scale.
+    flowMagnitude[e] = Math.sqrt((0.1 * squaredScale) / (resistance[e] as number));
+  }
+
+  const squared = new Float64Array(nodeCount);
+  for (let node = 0; node < nodeCount; node++) {
+    if (model.isReservoir[node] === 1) squared[node] = (system.fixedPressure[node] as number) ** 2;
+  }
+
+  for (let round = 0; round < ROUNDS; round++) {
+    const values = new Float64Array(4 * structure.blockCount);
+    const rhs = new Float64Array(2 * junctionCount);
+    for (let j = 0; j < junctionCount; j++) {
+      values[4 * j + 3] = 1; // temperature slot unused here
+      const node = model.junctionNodes[j] as number;
+      rhs[2 * j] = system.demand[node] as number;
+    }
+    for (let e = 0; e < edgeCount; e++) {
+      const conductance =
+        (squaredScale / ((resistance[e] as number) * Math.max(flowMagnitude[e] as number, 1e-12)));
+      const from = model.edgeFrom[e] as number;
+      const to = model.edgeTo[e] as number;
+      const a = model.unknownIndex[from] as number;
+      const b = model.unknownIndex[to] as number;
+      // Row of each junction end: sum c (P_other - P_self) = demand.
+      if (a >= 0) {
+        addAt(values, 4 * (system.edgeBlocks[4 * e] as number), -conductance);
+        if (b >= 0) addAt(values, 4 * (system.edgeBlocks[4 * e + 1] as number), conductance);
+        else rhs[2 * a] = (rhs[2 * a] as number) - (conductance * (squared[to] as number)) / squaredScale;
+      }
+      if (b >= 0) {
+        addAt(values, 4 * (system.edgeBlocks[4 * e + 3] as number), -conductance);
+        if (a >= 0) addAt(values, 4 * (system.edgeBlocks[4 * e + 2] as number), conductance);
+        else rhs[2 * b] = (rhs[2 * b] as number) - (conductance * (squared[from] as number)) / squaredScale;
+      }
+    }
+    const solution = solveFactored(factorBlockMatrix(structure, values), rhs);
+    const floor = (0.05 * pMin) ** 2;
+    for (let j = 0; j < junctionCount; j++) {
+      const node = model.junctionNodes[j] as number;
+      const value = (solution[2 * j] as number) * squaredScale;
+      squared[node] = Number.isFinite(value) ? Math.max(value, floor) : floor;
+    }
+    for (let e = 0; e < edgeCount; e++) {
+      const from = model.edgeFrom[e] as number;
+      const to = model.edgeTo[e] as number;
+      const difference = (squared[from] as number) - (squared[to] as number);
+      const flow =
+        (difference / ((resistance[e] as number) * Math.max(flowMagnitude[e] as number, 1e-12)));
+      signedFlow[e] = flow;
+      flowMagnitude[e] = 0.5 * ((flowMagnitude[e] as number) + Math.abs(flow));
+    }
+  }
+
+  // Temperatures: mixing balance with the guessed flows (adiabatic edges carry T upstream).
+  const values = new Float64Array(4 * structure.blockCount);
+  const rhs = new Float64Array(2 * junctionCount);
+  let throughput = 0;
+  for (let node = 0; node < nodeCount; node++) throughput += Math.abs(system.demand[node] as number);
+  throughput = Math.max(throughput, 1e-9);
+  for (let j = 0; j < junctionCount; j++) {
+    const node = model.junctionNodes[j] as number;
+    values[4 * j] = 1; // pressure slot unused here
+    const demand = system.demand[node] as number;
+    const weight = NO_FLOW_WEIGHT * throughput + 1e-9 * throughput;
+    values[4 * j + 3] = -(weight + (demand < 0 ? -demand : 0));
+    rhs[2 * j + 1] =
+      -(weight * supplyTemperature) -
+      (demand < 0 ? -demand * (system.injectionTemperature[node] as number) : 0);
+  }
+  for (let e = 0; e < edgeCount; e++) {
+    const flow = signedFlow[e] as number;
+    if (flow === 0) continue;
+    const from = model.edgeFrom[e] as number;
+    const to = model.edgeTo[e] as number;
+    const upstream = flow > 0 ? from : to;
+    const downstream = flow > 0 ? to : from;
+    const d = model.unknownIndex[downstream] as number;
+    if (d < 0) continue;
+    const u = model.unknownIndex[upstream] as number;
+    const magnitude = Math.abs(flow);
+    values[4 * d + 3] = (values[4 * d + 3] as number) - magnitude;
+    if (u >= 0) {
+      const block = system.edgeBlocks[4 * e + (flow > 0 ? 2 : 1)] as number;
+      values[4 * block + 3] = (values[4 * block + 3] as number) + magnitude;
+    } else {
+      rhs[2 * d + 1] = (rhs[2 * d + 1] as number) - magnitude * (system.fixedTemperature[upstream] as number);
+    }
+  }
+  const temperatures = solveFactored(factorBlockMatrix(structure, values), rhs);
+
+  const x = new Float64Array(2 * junctionCount);
+  for (let j = 0; j < junctionCount; j++) {
+    const node = model.junctionNodes[j] as number;
+    x[2 * j] = Math.sqrt(squared[node] as number) / system.pressureScale;
+    const t = temperatures[2 * j + 1] as number;
+    x[2 * j + 1] = (Number.isFinite(t) && t > 0 ? t : supplyTemperature) / system.temperatureScale;
+  }
+  return x;
+}
+
+/** Mean of the reservoir and injection temperatures [K]. */
+function meanSupplyTemperature(system: NetworkSystem): number {
+  let sum = 0;
+  let count = 0;
+  const nodes = system.model.document.nodes.length;
+  for (let node = 0; node < nodes; node++) {
+    const t = system.fixedTemperature[node] as number;
+    if (!Number.isNaN(t)) {
+      sum += t;
+      count++;
+    }
+    const injected = system.injectionTemperature[node] as number;
+    if (!Number.isNaN(injected)) {
+      sum += injected;
+      count++;
+    }
+  }
+  return count > 0 ? sum / count : system.ambientTemperature;
+}
+
+function addAt(values: Float64Array, index: number, amount: number): void {
+  values[index] = (values[index] as number) + amount;
+}

@@ -1,0 +1,344 @@
+/**
+ * The nonlinear system of a network: unknowns, residuals and their Jacobian.
+ *
+ * Unknowns: the pressure and the (stagnation) temperature of every junction, scaled by a
+ * reference pressure and a reference temperature. Reservoirs are fixed.
+ *
+ * Residuals per junction j (docs/model.md, "Network equations"):
+ *   mass:   sum of edge flows into j - demand_j = 0,                     scaled by throughput W
+ *   energy: sum over inflowing edges of m_e (T_arrive,e - T_j)
+ *           + injection_j (T_injected - T_j) + eps W (T_ambient - T_j) = 0, scaled by W T_ref
+ * The energy balance is written in this mixing form (the enthalpy balance minus cp T_j times the
+ * mass balance), so a junction's temperature depends only on the gas arriving there. The eps term
+ * (eps = 1e-12) gives a junction that no gas reaches the ambient temperature instead of a
+ * singular equation; elsewhere it moves temperatures by less than 1e-12 of W/(flow through j).
+ *
+ * Edge flows are functions of the node states (src/physics/pipe-flow.ts): the upstream end is the
+ * one at higher pressure; a choked edge's flow does not depend on its downstream pressure.
+ */
+import { gasViscosity } from "../gas/gas.js";
+import type { NetworkModel } from "../model/build-network.js";
+import { evaluatePipeFlow, type PipeGas, type PipeGeometry, PipeFlowEvaluation } from "../physics/pipe-flow.js";
+import type { BlockLuStructure } from "./sparse-block-lu.js";
+import { analyzeBlockPattern } from "./sparse-block-lu.js";
+
+/** Weight of the ambient-temperature term that regularises junctions without flow. */
+export const NO_FLOW_WEIGHT = 1e-12;
+
+/**
+ * In the Jacobian only, a choked edge's flow is given a slope of this fraction of its upstream
+ * slope with respect to its downstream pressure, so that a node fed only by choked edges does not
+ * make the Newton matrix singular. Residuals stay exact, so the solution is unchanged.
+ */
+export const CHOKED_SLOPE_FRACTION = 1e-6;
+
+/** Everything about a network that does not change between iterations. */
+export interface NetworkSystem {
+  model: NetworkModel;
+  junctionCount: number;
+  edgeCount: number;
+  pipes: PipeGeometry[];
+  gas: PipeGas;
+  /** Reference scales of the unknowns. */
+  pressureScale: number;
+  temperatureScale: number;
+  /** Fixed state of each node (NaN for junctions). */
+  fixedPressure: Float64Array;
+  fixedTemperature: Float64Array;
+  /** Demand per node [kg/s] (0 for reservoirs); injection temperature per node (NaN if none). */
+  demand: Float64Array;
+  injectionTemperature: Float64Array;
+  ambientTemperature: number;
+  /** Sparse structure of the Jacobian (junctions only). */
+  structure: BlockLuStructure;
+  /** Per edge: the four block indices (from,from), (from,to), (to,from), (to,to), -1 if absent. */
+  edgeBlocks: Int32Array;
+  /** One reusable evaluation per edge (warm starts live there). */
+  evaluations: PipeFlowEvaluation[];
+}
+
+/** Per-iteration results of an evaluation of the system. */
+export interface SystemEvaluation {
+  /** Scaled residuals, 2 per junction: [mass, energy]. */
+  residual: Float64Array;
+  /** Jacobian block values (4 per stored block), with respect to the scaled unknowns. */
+  jacobian: Float64Array | undefined;
+  /** Signed edge mass flows [kg/s], positive from `from` to `to`. */
+  massFlow: Float64Array;
+  /** Per edge: 1 if choked. */
+  choked: Uint8Array;
+  /** Net flow each node takes from the network [kg/s] (reservoirs: from the edges). */
+  nodeNetOutflow: Float64Array;
+  /** Throughput used to scale the mass residuals [kg/s]. */
+  throughput: number;
+}
+
+/** Build the constant parts of a network's system. */
+export function createNetworkSystem(model: NetworkModel): NetworkSystem {
+  const doc = model.document;
+  const gasData = doc.gas;
+  const gas: PipeGas = {
+    specificGasConstant: gasData.specificGasConstant,
+    heatCapacityRatio: gasData.heatCapacityRatio,
+    viscosity: (temperature: number) => gasViscosity(gasData, temperature),
+  };
+  const pipes: PipeGeometry[] = doc.edges.map((edge) => ({
+    length: edge.length,
+    diameter: edge.diameter,
+    roughness: edge.roughness ?? 0,
+    fixedFrictionFactor: edge.frictionFactor ?? Number.NaN,
+    minorLoss: edge.minorLoss,
+    model: edge.model,
+  }));
+  const nodeCount = doc.nodes.length;
+  const fixedPressure = new Float64Array(nodeCount).fill(Number.NaN);
+  const fixedTemperature = new Float64Array(nodeCount).fill(Number.NaN);
+  const demand = new Float64Array(nodeCount);
+  const injectionTemperature = new Float64Array(nodeCount).fill(Number.NaN);
+  let pressureScale = 0;
+  let temperatureScale = 0;
+  doc.nodes.forEach((node, index) => {
+    if (node.kind === "reservoir") {
+      fixedPressure[index] = node.pressure as number;
+      fixedTemperature[index] = node.temperature as number;
+      pressureScale = Math.max(pressureScale, node.pressure as number);
+      temperatureScale = Math.max(temperatureScale, node.temperature as number);
+    } else {
+      demand[index] = node.demand;
+      if (node.demand < 0 && node.temperature !== undefined) {
+        injectionTemperature[index] = node.temperature;
+        temperatureScale = Math.max(temperatureScale, node.temperature);
+      }
+    }
+  });
+
+  const junctionCount = model.junctionNodes.length;
+  const neighbours: number[][] = Array.from({ length: junctionCount }, () => []);
+  const seen = new Set<number>();
+  for (let e = 0; e < model.edgeFrom.length; e++) {
+    const a = model.unknownIndex[model.edgeFrom[e] as number] as number;
+    const b = model.unknownIndex[model.edgeTo[e] as number] as number;
+    if (a < 0 || b < 0) continue;
+    const key = Math.min(a, b) * junctionCount + Math.max(a, b);
+    if (seen.has(key)) continue;
+    seen.add(key);
+    (neighbours[a] as number[]).push(b);
+    (neighbours[b] as number[]).push(a);
+  }
+  const structure = analyzeBlockPattern({ size: junctionCount, neighbours });
+  const edgeBlocks = new Int32Array(4 * model.edgeFrom.length).fill(-1);
+  for (let e = 0; e < model.edgeFrom.length; e++) {
+    const a = model.unknownIndex[model.edgeFrom[e] as number] as number;
+    const b = model.unknownIndex[model.edgeTo[e] as number] as number;
+    if (a >= 0) edgeBlocks[4 * e] = structure.blockIndex(a, a);
+    if (a >= 0 && b >= 0) {
+      edgeBlocks[4 * e + 1] = structure.blockIndex(a, b);
+      edgeBlocks[4 * e + 2] = structure.blockIndex(b, a);
+    }
+    if (b >= 0) edgeBlocks[4 * e + 3] = structure.blockIndex(b, b);
+  }
+
+  return {
+    model,
+    junctionCount,
+    edgeCount: model.edgeFrom.length,
+    pipes,
+    gas,
+    pressureScale,
+    temperatureScale,
+    fixedPressure,
+    fixedTemperature,
+    demand,
+    injectionTemperature,
+    ambientTemperature: doc.ambientTemperature,
+    structure,
+    edgeBlocks,
+    evaluations: pipes.map(() => new PipeFlowEvaluation()),
+  };
+}
+
+/** Node pressure [Pa] from the scaled unknowns (reservoirs: fixed). */
+export function nodePressure(system: NetworkSystem, x: Float64Array, node: number): number {
+  const unknown = system.model.unknownIndex[node] as number;
+  return unknown < 0
+    ? (system.fixedPressure[node] as number)
+    : (x[2 * unknown] as number) * system.pressureScale;
+}
+
+/** Node temperature [K] from the scaled unknowns (reservoirs: fixed). */
+export function nodeTemperature(system: NetworkSystem, x: Float64Array, node: number): number {
+  const unknown = system.model.unknownIndex[node] as number;
+  return unknown < 0
+    ? (system.fixedTemperature[node] as number)
+    : (x[2 * unknown + 1] as number) * system.temperatureScale;
+}
+
+/**
+ * Evaluate residuals (and, if asked, the Jacobian) at the scaled unknowns x.
+ * `throughput` fixes the mass scale; pass undefined to take it from this state.
+ */
+export function evaluateSystem(
+  system: NetworkSystem,
+  x: Float64Array,
+  withJacobian: boolean,
+  throughput?: number,
+): SystemEvaluation {
+  const { model, edgeCount, junctionCount } = system;
+  const massFlow = new Float64Array(edgeCount);
+  const choked = new Uint8Array(edgeCount);
+  const arrival = new Float64Array(edgeCount);
+  // Per edge: derivatives of the signed flow and of the arrival temperature with respect to the
+  // unscaled states (pFrom, TFrom, pTo, TTo).
+  const flowSlopes = new Float64Array(4 * edgeCount);
+  const arrivalSlopes = new Float64Array(4 * edgeCount);
+  const nodeCount = model.document.nodes.length;
+  const nodeNetOutflow = new Float64Array(nodeCount);
+
+  for (let e = 0; e < edgeCount; e++) {
+    const from = model.edgeFrom[e] as number;
+    const to = model.edgeTo[e] as number;
+    const pFrom = nodePressure(system, x, from);
+    const pTo = nodePressure(system, x, to);
+    const forward = pFrom >= pTo;
+    const upstream = forward ? from : to;
+    const pUp = forward ? pFrom : pTo;
+    const pDown = forward ? pTo : pFrom;
+    const tUp = nodeTemperature(system, x, upstream);
+    const result = evaluatePipeFlow(
+      system.pipes[e] as PipeGeometry,
+      system.gas,
+      pUp,
+      tUp,
+      pDown,
+      system.evaluations[e] as PipeFlowEvaluation,
+    );
+    const sign = forward ? 1 : -1;
+    massFlow[e] = sign * result.massFlow;
+    choked[e] = result.choked ? 1 : 0;
+    arrival[e] = result.arrivalTemperature;
+    let dDown = result.dMassFlowdDownstreamPressure;
+    if (result.choked) dDown = -CHOKED_SLOPE_FRACTION * result.dMassFlowdUpstreamPressure;
+    // Slot order: 0 pFrom, 1 TFrom, 2 pTo, 3 TTo.
+    const upP = forward ? 0 : 2;
+    const upT = forward ? 1 : 3;
+    const downP = forward ? 2 : 0;
+    flowSlopes[4 * e + upP] = sign * result.dMassFlowdUpstreamPressure;
+    flowSlopes[4 * e + upT] = sign * result.dMassFlowdUpstreamTemperature;
+    flowSlopes[4 * e + downP] = sign * dDown;
+    arrivalSlopes[4 * e + upP] = result.dArrivalTemperaturedUpstreamPressure;
+    arrivalSlopes[4 * e + upT] = result.dArrivalTemperaturedUpstreamTemperature;
+    arrivalSlopes[4 * e + downP] = result.dArrivalTemperaturedDownstreamPressure;
+    nodeNetOutflow[from] = (nodeNetOutflow[from] as number) + (massFlow[e] as number);
+    nodeNetOutflow[to] = (nodeNetOutflow[to] as number) - (massFlow[e] as number);
+  }
+
+  let scale = throughput;
+  if (scale === undefined) scale = networkThroughput(system, nodeNetOutflow);
+  const temperatureScale = system.temperatureScale;
+  const energyScale = scale * temperatureScale;
+  const residual = new Float64Array(2 * junctionCount);
+  for (let j = 0; j < junctionCount; j++) {
+    const node = model.junctionNodes[j] as number;
+    const t = (x[2 * j + 1] as number) * temperatureScale;
+    const demand = system.demand[node] as number;
+    // mass: inflow - demand = -(net outflow to edges) - demand
+    residual[2 * j] = (-(nodeNetOutflow[node] as number) - demand) / scale;
+    let energy = NO_FLOW_WEIGHT * scale * (system.ambientTemperature - t);
+    if (demand < 0) energy += -demand * ((system.injectionTemperature[node] as number) - t);
+    residual[2 * j + 1] = energy;
+  }
+  for (let e = 0; e < edgeCount; e++) {
+    const flow = massFlow[e] as number;
+    if (flow === 0) continue;
+    const downstream = flow > 0 ? (model.edgeTo[e] as number) : (model.edgeFrom[e] as number);
+    const unknown = model.unknownIndex[downstream] as number;
+    if (unknown < 0) continue;
+    const t = (x[2 * unknown + 1] as number) * temperatureScale;
+    residual[2 * unknown + 1] =
+      (residual[2 * unknown + 1] as number) + Math.abs(flow) * ((arrival[e] as number) - t);
+  }
+  for (let j = 0; j < junctionCount; j++) {
+    residual[2 * j + 1] = (residual[2 * j + 1] as number) / energyScale;
+  }
+
+  let jacobian: Float64Array | undefined;
+  if (withJacobian) {
+    jacobian = new Float64Array(4 * system.structure.blockCount);
+    const pS = system.pressureScale;
+    const tS = temperatureScale;
+    // Regularisation of the energy rows.
+    for (let j = 0; j < junctionCount; j++) {
+      const node = model.junctionNodes[j] as number;
+      const demand = system.demand[node] as number;
+      const diagonal = -(NO_FLOW_WEIGHT * scale + (demand < 0 ? -demand : 0));
+      jacobian[4 * j + 3] = (jacobian[4 * j + 3] as number) + (diagonal * tS) / energyScale;
+    }
+    for (let e = 0; e < edgeCount; e++) {
+      const from = model.edgeFrom[e] as number;
+      const to = model.edgeTo[e] as number;
+      const ends = [from, to];
+      const flow = massFlow[e] as number;
+      // Mass rows: node `to` gains +flow, node `from` loses it.
+      for (let row = 0; row < 2; row++) {
+        const rowNode = ends[row] as number;
+        const rowUnknown = model.unknownIndex[rowNode] as number;
+        if (rowUnknown < 0) continue;
+        const sign = row === 0 ? -1 : 1;
+        for (let column = 0; column < 2; column++) {
+          const block = system.edgeBlocks[4 * e + 2 * row + column] as number;
+          if (block < 0) continue;
+          const b = 4 * block;
+          jacobian[b] = (jacobian[b] as number) + (sign * (flowSlopes[4 * e + 2 * column] as number) * pS) / scale;
+          jacobian[b + 1] =
+            (jacobian[b + 1] as number) + (sign * (flowSlopes[4 * e + 2 * column + 1] as number) * tS) / scale;
+        }
+      }
+      if (flow === 0) {
+        // At zero flow the energy terms vanish with their derivatives except through the flow:
+        // m (T_arrive - T_d) has slope (T_arrive - T_d) dm, which is counted below for the
+        // downstream end the flow would go to. With no flow both ends are candidates; the
+        // product is 0 at the solution, so the term is left out (it is of order eps).
+        continue;
+      }
+      // Energy row of the downstream node: |m| (T_arrive - T_d).
+      const downstreamRow = flow > 0 ? 1 : 0;
+      const downstream = ends[downstreamRow] as number;
+      const rowUnknown = model.unknownIndex[downstream] as number;
+      if (rowUnknown < 0) continue;
+      const tDown = (x[2 * rowUnknown + 1] as number) * tS;
+      const difference = (arrival[e] as number) - tDown;
+      const magnitudeSign = flow > 0 ? 1 : -1; // d|m| = magnitudeSign dm
+      const magnitude = Math.abs(flow);
+      for (let column = 0; column < 2; column++) {
+        const block = system.edgeBlocks[4 * e + 2 * downstreamRow + column] as number;
+        if (block < 0) continue;
+        const b = 4 * block;
+        const dP =
+          magnitudeSign * (flowSlopes[4 * e + 2 * column] as number) * difference +
+          magnitude * (arrivalSlopes[4 * e + 2 * column] as number);
+        let dT =
+          magnitudeSign * (flowSlopes[4 * e + 2 * column + 1] as number) * difference +
+          magnitude * (arrivalSlopes[4 * e + 2 * column + 1] as number);
+        if (column === downstreamRow) dT -= magnitude;
+        jacobian[b + 2] = (jacobian[b + 2] as number) + (dP * pS) / energyScale;
+        jacobian[b + 3] = (jacobian[b + 3] as number) + (dT * tS) / energyScale;
+      }
+    }
+  }
+  return { residual, jacobian, massFlow, choked, nodeNetOutflow, throughput: scale };
+}
+
+/**
+ * Throughput W = half the sum of the absolute external flows (demands, injections and reservoir
+ * flows) [kg/s], the scale of the mass residuals. Never below a floor of 1e-9 kg/s, so a network
+ * at rest still has a finite scale.
+ */
+export function networkThroughput(system: NetworkSystem, nodeNetOutflow: Float64Array): number {
+  let sum = 0;
+  const model = system.model;
+  for (let node = 0; node < model.document.nodes.length; node++) {
+    if (model.isReservoir[node] === 1) sum += Math.abs(nodeNetOutflow[node] as number);
+    else sum += Math.abs(system.demand[node] as number);
+  }
+  return Math.max(0.5 * sum, 1e-9);
+}

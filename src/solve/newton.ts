@@ -1,0 +1,146 @@
+/**
+ * Damped Newton iteration on a network system: sparse Jacobian, step limits that keep pressures
+ * and temperatures positive, and a backtracking line search on the scaled residual norm.
+ */
+import { evaluateSystem, type NetworkSystem, type SystemEvaluation } from "./network-system.js";
+import { factorBlockMatrix, solveFactored } from "./sparse-block-lu.js";
+
+/** Options of {@link newtonSolve}. */
+export interface NewtonOptions {
+  /** Largest scaled residual accepted as converged. */
+  tolerance: number;
+  /** Iterations before giving up. */
+  maxIterations: number;
+  /** Stop after this many milliseconds of wall time (checked once per iteration). */
+  timeLimitMs?: number;
+  /** Clock for the time limit (injected so the core reads no clock of its own unless asked). */
+  now?: () => number;
+}
+
+/** What a Newton run ended with. */
+export interface NewtonOutcome {
+  /** Scaled unknowns of the best iterate (the last one when converged). */
+  x: Float64Array;
+  converged: boolean;
+  iterations: number;
+  /** Largest scaled mass and energy residuals at x. */
+  massResidual: number;
+  energyResidual: number;
+  /** The system evaluated at x (flows, choke flags, throughput). */
+  evaluation: SystemEvaluation;
+  /** Why it stopped when not converged. */
+  stopReason?: "iterations" | "time" | "stalled" | "non-finite";
+}
+
+/** Largest fraction by which one step may change a pressure or a temperature. */
+const MAX_PRESSURE_CHANGE = 0.5;
+const MAX_TEMPERATURE_CHANGE = 0.3;
+/** Armijo constant and smallest step of the line search. */
+const SUFFICIENT_DECREASE = 1e-4;
+const MIN_STEP = 1e-6;
+
+function largest(residual: Float64Array, offset: number): number {
+  let value = 0;
+  for (let i = offset; i < residual.length; i += 2) value = Math.max(value, Math.abs(residual[i] as number));
+  return value;
+}
+
+function squaredNorm(residual: Float64Array): number {
+  let sum = 0;
+  for (let i = 0; i < residual.length; i++) sum += (residual[i] as number) ** 2;
+  return sum;
+}
+
+function allFinite(values: Float64Array): boolean {
+  for (let i = 0; i < values.length; i++) if (!Number.isFinite(values[i] as number)) return false;
+  return true;
+}
+
+/** Run damped Newton from x0 (scaled unknowns). */
+export function newtonSolve(system: NetworkSystem, x0: Float64Array, options: NewtonOptions): NewtonOutcome {
+  let x: Float64Array = Float64Array.from(x0);
+  const started = options.now?.();
+  let evaluation = evaluateSystem(system, x, true);
+  let best = { x, evaluation, norm: squaredNorm(evaluation.residual) };
+  let iterations = 0;
+  const outcome = (converged: boolean, stopReason?: NewtonOutcome["stopReason"]): NewtonOutcome => {
+    const chosen = converged ? { x, evaluation } : best;
+    const result: NewtonOutcome = {
+      x: chosen.x,
+      converged,
+      iterations,
+      massResidual: largest(chosen.evaluation.residual, 0),
+      energyResidual: largest(chosen.evaluation.residual, 1),
+      evaluation: chosen.evaluation,
+    };
+    if (stopReason !== undefined) result.stopReason = stopReason;
+    return result;
+  };
+
+  for (;;) {
+    if (!allFinite(evaluation.residual)) return outcome(false, "non-finite");
+    // Converged when the residuals at this state's own throughput meet the tolerance.
+    // (evaluation always uses this state's own throughput here.)
+    if (Math.max(largest(evaluation.residual, 0), largest(evaluation.residual, 1)) <= options.tolerance) {
+      return outcome(true);
+    }
+    if (iterations >= options.maxIterations) return outcome(false, "iterations");
+    if (
+      options.timeLimitMs !== undefined &&
+      options.now !== undefined &&
+      started !== undefined &&
+      options.now() - started > options.timeLimitMs
+    ) {
+      return outcome(false, "time");
+    }
+    iterations++;
+
+    const jacobian = evaluation.jacobian as Float64Array;
+    const factorization = factorBlockMatrix(system.structure, jacobian);
+    const rhs = evaluation.residual.map((value) => -value);
+    const step = solveFactored(factorization, rhs);
+    if (!allFinite(step)) return outcome(false, "non-finite");
+
+    // Step limit: no pressure or temperature changes by more than a set fraction at once.
+    let limit = 1;
+    for (let j = 0; j < system.junctionCount; j++) {
+      const p = x[2 * j] as number;
+      const t = x[2 * j + 1] as number;
+      const dp = step[2 * j] as number;
+      const dt = step[2 * j + 1] as number;
+      if (Math.abs(dp) > MAX_PRESSURE_CHANGE * p) limit = Math.min(limit, (MAX_PRESSURE_CHANGE * p) / Math.abs(dp));
+      if (Math.abs(dt) > MAX_TEMPERATURE_CHANGE * t)
+        limit = Math.min(limit, (MAX_TEMPERATURE_CHANGE * t) / Math.abs(dt));
+    }
+
+    // Backtracking line search on 0.5 |R|^2 with the mass scale of this iteration held fixed.
+    const norm = squaredNorm(evaluation.residual);
+    let alpha = limit;
+    let accepted: { x: Float64Array; evaluation: SystemEvaluation } | undefined;
+    while (alpha >= MIN_STEP) {
+      const trial = new Float64Array(x.length);
+      for (let i = 0; i < x.length; i++) trial[i] = (x[i] as number) + alpha * (step[i] as number);
+      const trialEvaluation = evaluateSystem(system, trial, false, evaluation.throughput);
+      const trialNorm = squaredNorm(trialEvaluation.residual);
+      if (Number.isFinite(trialNorm) && trialNorm <= (1 - 2 * SUFFICIENT_DECREASE * alpha) * norm) {
+        accepted = { x: trial, evaluation: trialEvaluation };
+        break;
+      }
+      alpha *= 0.5;
+    }
+    if (accepted === undefined) {
+      // No decrease along the Newton direction: take the smallest step anyway once, to leave a
+      // kink of the residual (a choke or flow-reversal point); stop if that does not help.
+      const trial = new Float64Array(x.length);
+      for (let i = 0; i < x.length; i++) trial[i] = (x[i] as number) + MIN_STEP * 10 * (step[i] as number);
+      const trialEvaluation = evaluateSystem(system, trial, false, evaluation.throughput);
+      if (!(squaredNorm(trialEvaluation.residual) < norm)) return outcome(false, "stalled");
+      accepted = { x: trial, evaluation: trialEvaluation };
+    }
+    x = accepted.x;
+    evaluation = evaluateSystem(system, x, true);
+    const currentNorm = squaredNorm(evaluation.residual);
+    if (currentNorm < best.norm || !Number.isFinite(best.norm)) best = { x, evaluation, norm: currentNorm };
+  }
+}
+

@@ -1,0 +1,260 @@
+/**
+ * The whole solve: document -> checked document -> model -> Newton (with continuation on the
+ * demands as a rescue) -> results with an independent balance check.
+ */
+import type { CheckedDocument } from "../input/document-types.js";
+import { InputError } from "../input/issues.js";
+import { checkedDocumentOrThrow } from "../input/read-document.js";
+import { buildNetwork, type NetworkModel } from "../model/build-network.js";
+import { designWarnings, resultsAtState } from "../results/build-results.js";
+import type { NetworkResult, NoSolutionDiagnosis, SolverWarning } from "../results/result-types.js";
+import { initialGuess } from "./initial-guess.js";
+import { createNetworkSystem, evaluateSystem, type NetworkSystem } from "./network-system.js";
+import { type NewtonOutcome, newtonSolve } from "./newton.js";
+
+/** Options of {@link solveNetwork}. */
+export interface SolveOptions {
+  /** Stop after this many milliseconds (needs `now`). */
+  timeLimitMs?: number;
+  /** Clock in milliseconds, e.g. `() => performance.now()`; the core reads no clock otherwise. */
+  now?: () => number;
+  /**
+   * Start from a previous result of the same network (warm start): its junction pressures and
+   * temperatures are the first iterate.
+   */
+  initialResult?: Pick<NetworkResult, "nodes">;
+}
+
+/** Thrown when the solver's own independent check of a "converged" state fails: a defect. */
+export class InternalCheckError extends Error {
+  constructor(message: string) {
+    super(`internal error: ${message}`);
+    this.name = "InternalCheckError";
+  }
+}
+
+/** Tolerance of the independent check, as a multiple of the solver tolerance. */
+const CHECK_MARGIN = 100;
+/** Largest accepted mismatch of a recomputed exit pressure, relative. */
+const EXIT_PRESSURE_TOLERANCE = 1e-7;
+
+/**
+ * Solve a network document (a parsed JSON value, an object built in code, or JSON text).
+ *
+ * Throws {@link InputError} when the document is invalid (every problem with its JSON Pointer).
+ * A solve that does not converge, or a network with no solution, is a result with
+ * `converged: false` and a `status` and `diagnosis` that say why.
+ *
+ * @example
+ * const result = solveNetwork({
+ *   gas: { preset: "air" },
+ *   nodes: [
+ *     { id: "SUPPLY", kind: "reservoir", pressure: "7 bar(g)", temperature: "20 degC" },
+ *     { id: "TOOL", kind: "junction", demand: "0.2 kg/s" },
+ *   ],
+ *   edges: [{ id: "P1", kind: "pipe", from: "SUPPLY", to: "TOOL", length: "40 m", diameter: "40.9 mm" }],
+ * });
+ * result.nodes[1].pressure; // Pa absolute at TOOL
+ */
+export function solveNetwork(document: unknown, options: SolveOptions = {}): NetworkResult {
+  const checked = checkedDocumentOrThrow(document);
+  return solveCheckedDocument(checked, options);
+}
+
+/** Build the model of a checked document or throw the topology issues. */
+export function modelOf(checked: CheckedDocument): NetworkModel {
+  const built = buildNetwork(checked);
+  if (!built.ok) throw new InputError(built.issues);
+  return built.model;
+}
+
+/** Solve a document that has already been read and checked. */
+export function solveCheckedDocument(checked: CheckedDocument, options: SolveOptions = {}): NetworkResult {
+  const model = modelOf(checked);
+  const system = createNetworkSystem(model);
+  const settings = checked.settings;
+  const newtonOptions = {
+    tolerance: settings.tolerance,
+    maxIterations: settings.maxIterations,
+    ...(options.timeLimitMs !== undefined ? { timeLimitMs: options.timeLimitMs } : {}),
+    ...(options.now !== undefined ? { now: options.now } : {}),
+  };
+
+  const start = options.initialResult
+    ? stateFromResult(system, options.initialResult) ?? initialGuess(system)
+    : initialGuess(system);
+  let outcome = newtonSolve(system, start, newtonOptions);
+  let iterations = outcome.iterations;
+  const warnings: SolverWarning[] = checked.notes.map((note) => ({
+    code: "bare-pressure-unit-absolute",
+    message: `${note.path}: ${note.message}`,
+  }));
+  let diagnosis: NoSolutionDiagnosis | undefined;
+  let status: NetworkResult["status"] = outcome.converged ? "converged" : "not-converged";
+
+  if (!outcome.converged && outcome.stopReason !== "time") {
+    const rescue = continuation(system, newtonOptions);
+    iterations += rescue.iterations;
+    if (rescue.outcome?.converged && rescue.scale === 1) {
+      outcome = rescue.outcome;
+      status = "converged";
+      warnings.push({
+        code: "continuation",
+        message: `solved by ramping the demands up from zero in ${rescue.steps} steps (plain Newton from the first guess did not converge)`,
+      });
+    } else if (rescue.scale < 1 && hasDemands(system)) {
+      status = "no-solution";
+      diagnosis = diagnose(system, outcome, rescue);
+    }
+  }
+
+  const state = resultsAtState(system, outcome.x);
+  const converged = status === "converged";
+  if (converged) {
+    const tolerance = CHECK_MARGIN * settings.tolerance;
+    const b = state.balance;
+    if (
+      !(b.largestMassImbalance <= tolerance) ||
+      !(b.largestEnergyImbalance <= tolerance) ||
+      !(b.largestExitPressureMismatch <= EXIT_PRESSURE_TOLERANCE)
+    ) {
+      throw new InternalCheckError(
+        `the solver reported convergence but the independent check of the final state failed (largest mass imbalance ${b.largestMassImbalance}, energy ${b.largestEnergyImbalance}, exit-pressure mismatch ${b.largestExitPressureMismatch}); please report this network`,
+      );
+    }
+  }
+  warnings.push(...designWarnings(state, settings.limits, system));
+  if (status === "not-converged") {
+    warnings.unshift({
+      code: "not-converged",
+      message: `not converged after ${iterations} iterations (${outcome.stopReason ?? "iterations"}); largest scaled residual ${Math.max(outcome.massResidual, outcome.energyResidual).toExponential(2)}: the numbers below are the best iterate, not a solution`,
+    });
+  }
+  if (status === "no-solution" && diagnosis) {
+    warnings.unshift({ code: "no-solution", message: diagnosis.message });
+  }
+
+  const result: NetworkResult = {
+    converged,
+    status,
+    iterations,
+    residual: Math.max(outcome.massResidual, outcome.energyResidual),
+    residuals: { mass: outcome.massResidual, energy: outcome.energyResidual },
+    warnings,
+    nodes: state.nodes,
+    edges: state.edges,
+    balance: state.balance,
+    name: checked.name,
+    gas: {
+      name: checked.gas.name,
+      molarMass: checked.gas.molarMass,
+      heatCapacityRatio: checked.gas.heatCapacityRatio,
+      specificGasConstant: checked.gas.specificGasConstant,
+      specificHeatCp: checked.gas.specificHeatCp,
+    },
+    ambient: { pressure: checked.ambientPressure, temperature: checked.ambientTemperature },
+  };
+  if (diagnosis) result.diagnosis = diagnosis;
+  return result;
+}
+
+function hasDemands(system: NetworkSystem): boolean {
+  return system.demand.some((value) => value !== 0);
+}
+
+/** Scaled unknowns from a previous result (matching node ids), or undefined if it does not fit. */
+function stateFromResult(system: NetworkSystem, previous: Pick<NetworkResult, "nodes">): Float64Array | undefined {
+  const byId = new Map(previous.nodes.map((node) => [node.id, node]));
+  const x = new Float64Array(2 * system.junctionCount);
+  const nodes = system.model.document.nodes;
+  for (let j = 0; j < system.junctionCount; j++) {
+    const node = nodes[system.model.junctionNodes[j] as number];
+    const old = node ? byId.get(node.id) : undefined;
+    if (!old || !(old.pressure > 0) || !(old.temperature > 0)) return undefined;
+    x[2 * j] = old.pressure / system.pressureScale;
+    x[2 * j + 1] = old.temperature / system.temperatureScale;
+  }
+  return x;
+}
+
+interface ContinuationOutcome {
+  /** Largest demand scale solved (0 if even that failed). */
+  scale: number;
+  outcome: NewtonOutcome | undefined;
+  iterations: number;
+  steps: number;
+}
+
+/** The system with every demand multiplied by `scale` (injections too). */
+function withDemandScale(system: NetworkSystem, scale: number): NetworkSystem {
+  return { ...system, demand: system.demand.map((value) => value * scale) };
+}
+
+/**
+ * Ramp the demands from zero to their stated values, each step warm-started from the last solved
+ * one, halving the step on failure. Returns the largest scale reached.
+ */
+function continuation(system: NetworkSystem, options: Parameters<typeof newtonSolve>[2]): ContinuationOutcome {
+  let iterations = 0;
+  let steps = 0;
+  const zero = withDemandScale(system, 0);
+  let solved = newtonSolve(zero, initialGuess(zero), options);
+  iterations += solved.iterations;
+  if (!solved.converged) return { scale: 0, outcome: undefined, iterations, steps };
+  let scale = 0;
+  let step = 0.25;
+  while (scale < 1 && step >= 1 / 1024) {
+    const target = Math.min(1, scale + step);
+    const attempt = newtonSolve(withDemandScale(system, target), solved.x, options);
+    iterations += attempt.iterations;
+    steps++;
+    if (attempt.converged) {
+      scale = target;
+      solved = attempt;
+      step *= 1.5;
+    } else {
+      step *= 0.5;
+    }
+  }
+  // Evaluate the original system at the last solved state so flows and chokes are at hand.
+  return { scale, outcome: solved, iterations, steps };
+}
+
+/** Why a network with fixed demands has no solution: how far it gets, and which edges choke. */
+function diagnose(system: NetworkSystem, direct: NewtonOutcome, rescue: ContinuationOutcome): NoSolutionDiagnosis {
+  const doc = system.model.document;
+  const limitingEdges: NoSolutionDiagnosis["limitingEdges"] = [];
+  if (rescue.outcome) {
+    const at = withDemandScale(system, rescue.scale);
+    const evaluation = evaluateSystem(at, rescue.outcome.x, false);
+    for (let e = 0; e < system.edgeCount; e++) {
+      const evaluationOfEdge = system.evaluations[e];
+      const flow = Math.abs(evaluation.massFlow[e] as number);
+      const capacity = evaluationOfEdge?.capacity ?? 0;
+      if (evaluation.choked[e] === 1 || (capacity > 0 && flow / capacity > 0.98)) {
+        limitingEdges.push({ id: doc.edges[e]?.id ?? String(e), capacity, massFlow: flow });
+      }
+    }
+  }
+  const openEquations: NoSolutionDiagnosis["openEquations"] = [];
+  const residual = direct.evaluation.residual;
+  for (let j = 0; j < system.junctionCount; j++) {
+    const node = doc.nodes[system.model.junctionNodes[j] as number]?.id ?? String(j);
+    openEquations.push({ node, equation: "mass", residual: residual[2 * j] as number });
+    openEquations.push({ node, equation: "energy", residual: residual[2 * j + 1] as number });
+  }
+  openEquations.sort((a, b) => Math.abs(b.residual) - Math.abs(a.residual));
+  const worst = openEquations.filter((entry) => Math.abs(entry.residual) > 1e-6).slice(0, 10);
+  const percent = (100 * rescue.scale).toFixed(1);
+  const edgesText =
+    limitingEdges.length > 0
+      ? `; at that point ${limitingEdges.length === 1 ? "edge" : "edges"} ${limitingEdges
+          .map((edge) => `${edge.id} (${edge.massFlow.toPrecision(4)} kg/s of a capacity of ${edge.capacity.toPrecision(4)} kg/s)`)
+          .join(", ")} ${limitingEdges.length === 1 ? "is" : "are"} choked or at capacity`
+      : "";
+  const message =
+    rescue.scale > 0
+      ? `no solution: the supplies can deliver only ${percent} % of the stated demands${edgesText}. Lower the demands, raise the supply pressure or enlarge the limiting edges.`
+      : `no solution: not even a small fraction of the stated demands can be delivered${edgesText}. Check the demands, the supply pressures and the pipe sizes.`;
+  return { largestFeasibleDemandScale: rescue.scale, limitingEdges, openEquations: worst, message };
+}
