@@ -7,6 +7,7 @@
  * are quoted in (60 degF, 14.696 psia) to SI.
  */
 
+import { MOLAR_GAS_CONSTANT } from "../gas/gas.js";
 import { create, type FactoryFunctionMap, unitDependencies } from "mathjs";
 
 /**
@@ -16,13 +17,6 @@ import { create, type FactoryFunctionMap, unitDependencies } from "mathjs";
 // mathjs types every exported dependency map as possibly undefined under noUncheckedIndexedAccess.
 const math = create({ unitDependencies: unitDependencies as FactoryFunctionMap });
 
-/**
- * Molar gas constant Ru [J/(mol K)], CODATA 2018 recommended value (exact since the 2019 SI
- * redefinition fixed the Boltzmann and Avogadro constants), as printed to 10 digits.
- * Source: E. Tiesinga et al., "CODATA recommended values of the fundamental physical constants:
- * 2018", Rev. Mod. Phys. 93, 025010 (2021).
- */
-export const MOLAR_GAS_CONSTANT = 8.314462618;
 
 /** The names of the reference states machnet reads volumetric flows at. */
 export type ReferenceConditionName = "normal" | "standard" | "usStandard";

@@ -59,6 +59,26 @@ function fannoResidual(inverseMachSquared: number, gamma: number, target: number
   return fannoParameterOfInverseSquare(inverseMachSquared, gamma) - target;
 }
 
+// Supersonic residual h(s) - P written as [h(s) - h(0)] + [h(0) - P] away from M = 1, with
+// h(s) - h(0) = s/gamma - (gamma + 1)/(2 gamma) ln(1 + 2 s/(gamma - 1)) and h(0) - P passed in
+// (exact by Sterbenz's lemma when P is near the limit h(0)): this keeps relative precision in s
+// as M -> infinity, where s is small.
+function fannoSupersonicResidual(
+  inverseMachSquared: number,
+  gamma: number,
+  target: number,
+  limitMinusTarget: number,
+): number {
+  const s = inverseMachSquared;
+  const z = (1 - s) / (s + gamma);
+  if (Math.abs(z) < SERIES_LIMIT) return ((gamma + 1) / gamma) * frictionKernelSeries(z) - target;
+  return (
+    s / gamma -
+    ((gamma + 1) / (2 * gamma)) * Math.log1p((2 * s) / (gamma - 1)) +
+    limitMinusTarget
+  );
+}
+
 function fannoSlope(inverseMachSquared: number, gamma: number): number {
   const s = inverseMachSquared;
   return (2 * (s - 1)) / (gamma * (2 * s + gamma - 1));
@@ -238,6 +258,7 @@ export function machFromFannoParameter(
       fannoSlope,
       gamma,
       parameter,
+      0,
       lower,
       upper,
       upper,
@@ -260,10 +281,11 @@ export function machFromFannoParameter(
   );
   const upper = Math.min(1, 1 - parameter / limit);
   const s = safeguardedNewton(
-    fannoResidual,
+    fannoSupersonicResidual,
     fannoSlope,
     gamma,
     parameter,
+    limit - parameter,
     lower,
     upper,
     lower,

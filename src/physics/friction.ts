@@ -80,6 +80,7 @@ function colebrookInverseRoot(reynolds: number, relativeRoughness: number): numb
     roughnessTerm,
     reynoldsTerm,
     0,
+    0,
     upper,
     guess,
     true,

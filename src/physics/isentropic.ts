@@ -278,6 +278,7 @@ function machFromLogAreaRatio(logTarget: number, gamma: number, branch: FlowBran
     logAreaRatioSlope,
     gamma,
     logTarget,
+    0,
     lower,
     upper,
     guess,
@@ -321,6 +322,11 @@ export function machFromMassFluxParameter(
     throw new RangeError("mass-flux parameter 0 has no finite supersonic Mach number");
   }
   if (parameter >= maximum) return 1;
-  // ln(A/A*) = -ln(parameter / maximum), with parameter - maximum exact near the maximum.
-  return machFromLogAreaRatio(-Math.log1p((parameter - maximum) / maximum), gamma, branch);
+  // ln(A/A*) = -ln(parameter / maximum); near the maximum through log1p, since
+  // parameter - maximum is exact there (Sterbenz's lemma).
+  const logAreaRatio =
+    parameter > 0.5 * maximum
+      ? -Math.log1p((parameter - maximum) / maximum)
+      : Math.log(maximum / parameter);
+  return machFromLogAreaRatio(logAreaRatio, gamma, branch);
 }

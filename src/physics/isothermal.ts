@@ -49,6 +49,7 @@ function squaredPressureRatioFromParameter(parameter: number): number {
     isothermalSlope,
     parameter,
     0,
+    0,
     lower,
     upper,
     upper,

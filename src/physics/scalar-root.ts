@@ -14,24 +14,25 @@
  * @module
  */
 
-/** A function of the unknown `x` and two fixed parameters; module-level, so no closure is made. */
-export type ScalarFunction = (x: number, first: number, second: number) => number;
+/** A function of the unknown `x` and three fixed parameters; module-level, so no closure is made. */
+export type ScalarFunction = (x: number, first: number, second: number, third: number) => number;
 
 /** Iteration cap: bisection alone halves the bracket each step, so 200 steps are never reached. */
 const MAXIMUM_ITERATIONS = 200;
 
 /**
- * Root of `value(x, first, second) = 0` in `[lower, upper]` by Newton steps, with a bisection step
+ * Root of `value(x, first, second, third) = 0` in `[lower, upper]` by Newton steps, with a bisection step
  * whenever the Newton step leaves the bracket or does not shrink quickly enough.
  *
  * The bracket must hold the root; its end values are never evaluated, so the caller states the
  * orientation: `increasing` is true when the function is negative at `lower` and positive at
  * `upper`. Iteration stops when a step is at most `relativeTolerance * |x| + absoluteTolerance`.
  *
- * @param value - f(x, first, second)
- * @param slope - df/dx at (x, first, second)
+ * @param value - f(x, first, second, third)
+ * @param slope - df/dx at (x, first, second, third)
  * @param first - first fixed parameter, passed through to `value` and `slope`
- * @param second - second fixed parameter, passed through to `value` and `slope`
+ * @param second - second fixed parameter, passed through
+ * @param third - third fixed parameter, passed through
  * @param lower - lower end of a bracket of the root
  * @param upper - upper end of a bracket of the root (>= lower)
  * @param guess - starting point (clamped into the bracket)
@@ -40,7 +41,7 @@ const MAXIMUM_ITERATIONS = 200;
  * @param absoluteTolerance - ... plus this
  * @returns the root, to the tolerance
  * @remarks Press et al., Numerical Recipes, 3rd ed., 2007, section 9.4 ("rtsafe").
- * @example safeguardedNewton((x, a) => x * x - a, (x) => 2 * x, 2, 0, 0, 2, 1, true, 1e-15, 0)
+ * @example safeguardedNewton((x, a) => x * x - a, (x) => 2 * x, 2, 0, 0, 0, 2, 1, true, 1e-15, 0)
  *   // 1.4142135623730951 (checked in test/physics/scalar-root.test.ts)
  */
 export function safeguardedNewton(
@@ -48,6 +49,7 @@ export function safeguardedNewton(
   slope: ScalarFunction,
   first: number,
   second: number,
+  third: number,
   lower: number,
   upper: number,
   guess: number,
@@ -61,11 +63,11 @@ export function safeguardedNewton(
   let stepBeforeLast = high - low;
   let lastStep = stepBeforeLast;
   for (let iteration = 0; iteration < MAXIMUM_ITERATIONS; iteration++) {
-    const fx = value(x, first, second);
+    const fx = value(x, first, second, third);
     if (fx === 0) return x;
     if (fx < 0 === increasing) low = x;
     else high = x;
-    const dfx = slope(x, first, second);
+    const dfx = slope(x, first, second, third);
     const newtonStep = fx / dfx;
     let next = x - newtonStep;
     // A step at rounding level may land on the bracket end just set to x: accept it first.

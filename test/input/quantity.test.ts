@@ -1,11 +1,8 @@
 import fc from "fast-check";
 import { describe, expect, test } from "vitest";
 import { parseQuantity, type QuantityKind } from "../../src/input/quantity.js";
-import {
-  MOLAR_GAS_CONSTANT,
-  REFERENCE_CONDITIONS,
-  referenceDensity,
-} from "../../src/input/reference-conditions.js";
+import { MOLAR_GAS_CONSTANT } from "../../src/gas/gas.js";
+import { REFERENCE_CONDITIONS, referenceDensity } from "../../src/input/reference-conditions.js";
 
 // Unit definitions, written here from the defining documents (not from the code under test):
 /** 1 in = 25.4 mm exactly: international yard and pound agreement, 1959 (1 yd = 0.9144 m). */

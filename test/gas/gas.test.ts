@@ -15,8 +15,9 @@ import {
   stagnationPressure,
   stagnationTemperature,
   staticTemperatureFromStagnation,
-} from "../../src/model/gas.js";
-import type { Gas, SutherlandViscosity } from "../../src/model/gas-types.js";
+} from "../../src/gas/gas.js";
+import { NATURAL_GAS_COMPOSITION, SPECIES } from "../../src/gas/gas-presets.js";
+import type { Gas, SutherlandViscosity } from "../../src/gas/gas-types.js";
 
 /**
  * Reference data made by test/fixtures/gas/make-gas-reference.py from chemicals 1.5.2 and
@@ -539,8 +540,18 @@ describe("natural gas preset", () => {
     // Fixture: same composition with chemicals 1.5.2 molar masses. Tolerance 1e-4: the two
     // atomic-weight sets differ in the fifth figure.
     expectRelative(naturalGas.molarMass * 1000, fixture.molarMassGPerMol, 1e-4, "M");
-    const fractions = fixture.moleFractions.reduce((sum, x) => sum + x, 0);
-    expect(Math.abs(fractions - 1)).toBeLessThan(1e-12);
+    // The composition is typed twice (gas-presets.ts and the fixture script): same fractions.
+    // Tolerance 1e-12: normalisation rounding.
+    if (naturalGas.viscosityLaw.kind !== "wilke") throw new Error("wilke expected");
+    expect(NATURAL_GAS_COMPOSITION.map((part) => part.species)).toEqual(fixture.components);
+    naturalGas.viscosityLaw.components.forEach((component, index) => {
+      expectRelative(
+        component.moleFraction,
+        fixture.moleFractions[index] as number,
+        1e-12,
+        `fraction ${index}`,
+      );
+    });
   });
 
   it("has the gamma of the Poling heat capacities mixed by mole fraction", () => {
@@ -550,14 +561,25 @@ describe("natural gas preset", () => {
     expectRelative(molarCp(naturalGas), fixture.cpPoling298, 5e-4, "Cp");
   });
 
-  it("its components' heat capacities match the TRC correlation at 298.15 K", () => {
-    // The C2+ values are Poling's table; TRC (chemicals 1.5.2) is an independent fit.
-    // Tolerance 2e-3, as for the pure presets.
-    if (naturalGas.viscosityLaw.kind !== "wilke") throw new Error("wilke expected");
-    for (const name of ["ethane", "propane", "isobutane", "n-butane", "n-pentane", "n-hexane"]) {
+  it("its C2+ components' heat capacities match Poling's table and the TRC correlation", () => {
+    // src/gas/gas-presets.ts gives Poling et al. Appendix A values (chemicals 1.5.2
+    // Cp_data_Poling): 5e-4 relative, that table's 4-5 printed figures. TRC (chemicals 1.5.2
+    // TRCCp) is an independent fit: 2e-3, as for the pure presets.
+    const names = [
+      "ethane",
+      "propane",
+      "isobutane",
+      "n-butane",
+      "isopentane",
+      "n-pentane",
+      "n-hexane",
+    ] as const;
+    for (const name of names) {
+      const heat = SPECIES[name].heat;
+      if (!("molarHeatCapacity" in heat)) throw new Error(`${name} has no molar cp`);
       const data = speciesReference(name);
-      const trc = data.cpTRC["298.15"] as number;
-      expectRelative(data.cpPoling298 as number, trc, 2e-3, `${name} Cp`);
+      expectRelative(heat.molarHeatCapacity, data.cpPoling298 as number, 5e-4, `${name} Cp`);
+      expectRelative(heat.molarHeatCapacity, data.cpTRC["298.15"] as number, 2e-3, `${name} Cp`);
     }
   });
 
@@ -578,20 +600,8 @@ describe("natural gas preset", () => {
     // Tolerance as for the pure presets: 2 % plus |Perry / VDI - 1| (3.4 % at 300 K, 6.5 % at
     // 250 K for isopentane, where the compilations disagree most).
     if (naturalGas.viscosityLaw.kind !== "wilke") throw new Error("wilke expected");
-    const names = [
-      "methane",
-      "nitrogen",
-      "carbon-dioxide",
-      "ethane",
-      "propane",
-      "isobutane",
-      "n-butane",
-      "isopentane",
-      "n-pentane",
-      "n-hexane",
-    ];
     naturalGas.viscosityLaw.components.forEach((component, componentIndex) => {
-      const name = names[componentIndex] as string;
+      const name = NATURAL_GAS_COMPOSITION[componentIndex]?.species as string;
       const data = speciesReference(name);
       expectRelative(component.molarMass * 1000, data.molarMassGPerMol, 1e-4, `${name} M`);
       const single = idealGas({
@@ -782,7 +792,7 @@ describe("bad inputs", () => {
   });
 });
 
-describe("documented examples (TSDoc @example in src/model/gas.ts)", () => {
+describe("documented examples (TSDoc @example in src/gas/gas.ts)", () => {
   // Each value as printed in the doc comment; tolerance half its last printed digit.
   const air = gasPreset("air");
   it("MOLAR_GAS_CONSTANT, GAS_PRESET_NAMES, isGasPresetName, gasPreset", () => {

@@ -1,10 +1,10 @@
 /**
  * Data behind the gas presets: molar mass, heat capacity at 298.15 K and Sutherland constants
- * for each species, each with its source. Plain numbers only; src/model/gas.ts turns them into
+ * for each species, each with its source. Plain numbers only; src/gas/gas.ts turns them into
  * `Gas` objects. docs/model.md (gas section) tabulates the same values.
  *
  * "From memory" marks a value recalled rather than read from the source named; every such
- * value is checked in test/model/gas.test.ts against an independent reference.
+ * value is checked in test/gas/gas.test.ts against an independent reference.
  */
 
 import type { SutherlandViscosity } from "./gas-types.js";
@@ -12,7 +12,7 @@ import type { SutherlandViscosity } from "./gas-types.js";
 /**
  * Standard atomic weights [g/mol], IUPAC CIAAW 2021 (abridged / conventional values for the
  * elements whose standard atomic weight is an interval: H, C, N, O, Ar). He is the full value
- * 4.002602. From memory; test/model/gas.test.ts checks each species' molar mass against the
+ * 4.002602. From memory; test/gas/gas.test.ts checks each species' molar mass against the
  * element table of the chemicals 1.5.2 library within 1e-4.
  */
 const ATOMIC_WEIGHT = { H: 1.008, He: 4.002602, C: 12.011, N: 14.007, O: 15.999, Ar: 39.95 };

@@ -1,0 +1,94 @@
+/**
+ * machnet: steady compressible gas flow in pipe networks.
+ *
+ * The one public entry. Network functions ({@link solveNetwork}, {@link checkNetwork}), the
+ * document and result types, the gas properties, the units parser and every single-pipe and
+ * one-dimensional flow relation, each usable on its own. Everything not exported here is internal.
+ *
+ * Results are engineering estimates. Pressure and relief systems are designed and checked to the
+ * applicable codes by qualified engineers.
+ *
+ * @packageDocumentation
+ */
+
+// Network
+export { checkNetwork, type CheckResult } from "./check-network.js";
+export {
+  InternalCheckError,
+  type SolveOptions,
+  solveNetwork,
+} from "./solve/solve-network.js";
+export type {
+  EdgeResult,
+  NetworkBalance,
+  NetworkResult,
+  NodeResult,
+  NoSolutionDiagnosis,
+  SolverWarning,
+  SolveStatus,
+  WarningCode,
+} from "./results/result-types.js";
+export { DEFAULT_LIMITS } from "./results/build-results.js";
+
+// Input
+export type {
+  CheckedDocument,
+  DesignLimits,
+  EdgeInput,
+  GasInput,
+  NetworkDocument,
+  NodeInput,
+  QuantityInput,
+  SettingsInput,
+} from "./input/document-types.js";
+export { formatIssue, type InputIssue, type InputIssueCode, InputError } from "./input/issues.js";
+export { networkSchema } from "./input/network-schema.js";
+export { DEFAULT_AMBIENT, DEFAULT_ROUGHNESS, DEFAULT_SETTINGS, readNetworkText } from "./input/read-document.js";
+export {
+  parseQuantity,
+  type QuantityContext,
+  type QuantityKind,
+  type QuantityNote,
+  type QuantityResult,
+} from "./input/quantity.js";
+export {
+  REFERENCE_CONDITIONS,
+  type ReferenceCondition,
+  type ReferenceConditionName,
+  referenceDensity,
+} from "./input/reference-conditions.js";
+
+// Gas
+export * from "./gas/gas.js";
+export type {
+  ConstantViscosity,
+  Gas,
+  SutherlandViscosity,
+  ViscosityLaw,
+  WilkeViscosity,
+} from "./gas/gas-types.js";
+
+// One-dimensional relations and one pipe
+export * from "./physics/isentropic.js";
+export * from "./physics/fanno.js";
+export * from "./physics/isothermal.js";
+export * from "./physics/friction.js";
+export {
+  type Pipe,
+  type PipeEndState,
+  type PipeFlowResult,
+  type PipeOutletResult,
+  type PlenumState,
+  pipeFlow,
+  pipeOutlet,
+} from "./physics/pipe.js";
+
+// Display units
+export {
+  type DisplayKind,
+  type DisplayUnit,
+  displayGaugePressure,
+  displayUnit,
+  UNIT_SET_NAMES,
+  type UnitSetName,
+} from "./output/display-units.js";

@@ -1,2 +1,0 @@
-// Temporary re-export while the gas module moves to src/gas/.
-export * from "../gas/gas-types.js";
