@@ -19,7 +19,8 @@ export type CheckResult =
  * checkNetwork({ nodes: [], edges: [] }).issues[0].message // "must have at least 1 item(s)"
  */
 export function checkNetwork(document: unknown): CheckResult {
-  const read = typeof document === "string" ? readNetworkText(document) : readNetworkDocument(document);
+  const read =
+    typeof document === "string" ? readNetworkText(document) : readNetworkDocument(document);
   if (!read.ok) return { ok: false, issues: read.issues };
   const built = buildNetwork(read.document);
   if (!built.ok) return { ok: false, issues: built.issues };

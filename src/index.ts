@@ -12,24 +12,16 @@
  */
 
 // Network
-export { checkNetwork, type CheckResult } from "./check-network.js";
-export {
-  InternalCheckError,
-  type SolveOptions,
-  solveNetwork,
-} from "./solve/solve-network.js";
+export { type CheckResult, checkNetwork } from "./check-network.js";
+// Gas
+export * from "./gas/gas.js";
 export type {
-  EdgeResult,
-  NetworkBalance,
-  NetworkResult,
-  NodeResult,
-  NoSolutionDiagnosis,
-  SolverWarning,
-  SolveStatus,
-  WarningCode,
-} from "./results/result-types.js";
-export { DEFAULT_LIMITS } from "./results/build-results.js";
-
+  ConstantViscosity,
+  Gas,
+  SutherlandViscosity,
+  ViscosityLaw,
+  WilkeViscosity,
+} from "./gas/gas-types.js";
 // Input
 export type {
   CheckedDocument,
@@ -41,9 +33,8 @@ export type {
   QuantityInput,
   SettingsInput,
 } from "./input/document-types.js";
-export { formatIssue, type InputIssue, type InputIssueCode, InputError } from "./input/issues.js";
+export { formatIssue, InputError, type InputIssue, type InputIssueCode } from "./input/issues.js";
 export { networkSchema } from "./input/network-schema.js";
-export { DEFAULT_AMBIENT, DEFAULT_ROUGHNESS, DEFAULT_SETTINGS, readNetworkText } from "./input/read-document.js";
 export {
   parseQuantity,
   type QuantityContext,
@@ -52,37 +43,17 @@ export {
   type QuantityResult,
 } from "./input/quantity.js";
 export {
+  DEFAULT_AMBIENT,
+  DEFAULT_ROUGHNESS,
+  DEFAULT_SETTINGS,
+  readNetworkText,
+} from "./input/read-document.js";
+export {
   REFERENCE_CONDITIONS,
   type ReferenceCondition,
   type ReferenceConditionName,
   referenceDensity,
 } from "./input/reference-conditions.js";
-
-// Gas
-export * from "./gas/gas.js";
-export type {
-  ConstantViscosity,
-  Gas,
-  SutherlandViscosity,
-  ViscosityLaw,
-  WilkeViscosity,
-} from "./gas/gas-types.js";
-
-// One-dimensional relations and one pipe
-export * from "./physics/isentropic.js";
-export * from "./physics/fanno.js";
-export * from "./physics/isothermal.js";
-export * from "./physics/friction.js";
-export {
-  type Pipe,
-  type PipeEndState,
-  type PipeFlowResult,
-  type PipeOutletResult,
-  type PlenumState,
-  pipeFlow,
-  pipeOutlet,
-} from "./physics/pipe.js";
-
 // Display units
 export {
   type DisplayKind,
@@ -92,3 +63,34 @@ export {
   UNIT_SET_NAMES,
   type UnitSetName,
 } from "./output/display-units.js";
+export * from "./physics/fanno.js";
+export * from "./physics/friction.js";
+
+// One-dimensional relations and one pipe
+export * from "./physics/isentropic.js";
+export * from "./physics/isothermal.js";
+export {
+  type Pipe,
+  type PipeEndState,
+  type PipeFlowResult,
+  type PipeOutletResult,
+  type PlenumState,
+  pipeFlow,
+  pipeOutlet,
+} from "./physics/pipe.js";
+export { DEFAULT_LIMITS } from "./results/build-results.js";
+export type {
+  EdgeResult,
+  NetworkBalance,
+  NetworkResult,
+  NodeResult,
+  NoSolutionDiagnosis,
+  SolverWarning,
+  SolveStatus,
+  WarningCode,
+} from "./results/result-types.js";
+export {
+  InternalCheckError,
+  type SolveOptions,
+  solveNetwork,
+} from "./solve/solve-network.js";

@@ -23,7 +23,11 @@ export interface ConstantViscosity {
 /** A mixture's viscosity by Wilke's rule from its components' own laws. */
 export interface WilkeViscosity {
   kind: "wilke";
-  components: { moleFraction: number; molarMass: number; law: SutherlandViscosity | ConstantViscosity }[];
+  components: {
+    moleFraction: number;
+    molarMass: number;
+    law: SutherlandViscosity | ConstantViscosity;
+  }[];
 }
 
 export type ViscosityLaw = SutherlandViscosity | ConstantViscosity | WilkeViscosity;

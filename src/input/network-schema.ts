@@ -28,7 +28,7 @@ const sutherland = {
   additionalProperties: false,
   required: ["referenceViscosity", "referenceTemperature", "sutherlandConstant"],
   properties: {
-    referenceViscosity: { ...quantity, description: "mu0 (Pa s, or e.g. \"17.16 uPa s\")" },
+    referenceViscosity: { ...quantity, description: 'mu0 (Pa s, or e.g. "17.16 uPa s")' },
     referenceTemperature: { ...quantity, description: "T0 (K or a temperature string)" },
     sutherlandConstant: { ...quantity, description: "S (K, or a temperature difference string)" },
   },
@@ -153,6 +153,7 @@ export const networkSchema = {
         allOf: [
           {
             if: { properties: { kind: { const: "reservoir" } } },
+            // biome-ignore lint/suspicious/noThenProperty: JSON Schema's own if/then keyword
             then: {
               required: ["pressure", "temperature"],
               not: { required: ["demand"] },
@@ -160,6 +161,7 @@ export const networkSchema = {
           },
           {
             if: { properties: { kind: { const: "junction" } } },
+            // biome-ignore lint/suspicious/noThenProperty: JSON Schema's own if/then keyword
             then: { not: { required: ["pressure"] } },
           },
         ],

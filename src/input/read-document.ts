@@ -5,7 +5,7 @@
  */
 import { Ajv2020, type ErrorObject } from "ajv/dist/2020.js";
 import { type ParseError, parse as parseTolerant, printParseErrorCode } from "jsonc-parser";
-import { gasMixture, gasPreset, GAS_PRESET_NAMES, idealGas, isGasPresetName } from "../gas/gas.js";
+import { GAS_PRESET_NAMES, gasMixture, gasPreset, idealGas, isGasPresetName } from "../gas/gas.js";
 import type { Gas, ViscosityLaw } from "../gas/gas-types.js";
 import type {
   CheckedDocument,
@@ -17,7 +17,7 @@ import type {
   NetworkDocument,
   QuantityInput,
 } from "./document-types.js";
-import { type InputIssue, InputError, jsonPointer, sortIssues } from "./issues.js";
+import { InputError, type InputIssue, jsonPointer, sortIssues } from "./issues.js";
 import { networkSchema } from "./network-schema.js";
 import { parseQuantity, type QuantityKind } from "./quantity.js";
 
@@ -63,7 +63,9 @@ export function parseJsonText(
   if (text.trim() === "") {
     return {
       ok: false,
-      issues: [{ code: "document", path: "", message: "the document is empty; expected a JSON object" }],
+      issues: [
+        { code: "document", path: "", message: "the document is empty; expected a JSON object" },
+      ],
     };
   }
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
@@ -114,7 +116,13 @@ let compiledValidator: ReturnType<Ajv2020["compile"]> | undefined;
 /** The schema validator, compiled once on first use (allowed shared state: it never changes). */
 function schemaValidator(): ReturnType<Ajv2020["compile"]> {
   if (compiledValidator === undefined) {
-    const ajv = new Ajv2020({ allErrors: true, strict: true, strictRequired: false, allowUnionTypes: true });
+    const ajv = new Ajv2020({
+      allErrors: true,
+      verbose: true,
+      strict: true,
+      strictRequired: false,
+      allowUnionTypes: true,
+    });
     compiledValidator = ajv.compile(networkSchema);
   }
   return compiledValidator;
@@ -176,7 +184,11 @@ function schemaIssue(error: ErrorObject): InputIssue | undefined {
         message: `must be one of ${(params.allowedValues as unknown[]).map((v) => JSON.stringify(v)).join(", ")}`,
       };
     case "minItems":
-      return { code: "schema", path, message: `must have at least ${String(params.limit)} item(s)` };
+      return {
+        code: "schema",
+        path,
+        message: `must have at least ${String(params.limit)} item(s)`,
+      };
     case "maxItems":
       return { code: "schema", path, message: `must have at most ${String(params.limit)} items` };
     case "minLength":
@@ -329,7 +341,10 @@ function convertDocument(doc: NetworkDocument): ReadResult {
 
   // Ambient first: gauge pressures everywhere else are relative to it.
   const ambientPressureInput = doc.ambient?.pressure;
-  if (typeof ambientPressureInput === "string" && /\(g\)|g$|gauge/i.test(ambientPressureInput.trim())) {
+  if (
+    typeof ambientPressureInput === "string" &&
+    /\(g\)|g$|gauge/i.test(ambientPressureInput.trim())
+  ) {
     reader.fail({
       code: "value",
       path: "/ambient/pressure",
@@ -338,7 +353,8 @@ function convertDocument(doc: NetworkDocument): ReadResult {
     });
   }
   const ambientPressure =
-    reader.positive(ambientPressureInput, "pressure", "/ambient/pressure") ?? DEFAULT_AMBIENT.pressure;
+    reader.positive(ambientPressureInput, "pressure", "/ambient/pressure") ??
+    DEFAULT_AMBIENT.pressure;
   reader.ambientPressure = ambientPressure;
   const ambientTemperature =
     reader.quantity(doc.ambient?.temperature, "temperature", "/ambient/temperature") ??
@@ -351,7 +367,11 @@ function convertDocument(doc: NetworkDocument): ReadResult {
   const limitsInput = doc.settings?.limits ?? {};
   const limits: DesignLimits = {};
   if (limitsInput.maxMach !== undefined) limits.maxMach = limitsInput.maxMach;
-  const maxVelocity = reader.positive(limitsInput.maxVelocity, "velocity", "/settings/limits/maxVelocity");
+  const maxVelocity = reader.positive(
+    limitsInput.maxVelocity,
+    "velocity",
+    "/settings/limits/maxVelocity",
+  );
   if (maxVelocity !== undefined) limits.maxVelocity = maxVelocity;
   const maxMomentumFlux = reader.positive(
     limitsInput.maxMomentumFlux,
@@ -359,7 +379,11 @@ function convertDocument(doc: NetworkDocument): ReadResult {
     "/settings/limits/maxMomentumFlux",
   );
   if (maxMomentumFlux !== undefined) limits.maxMomentumFlux = maxMomentumFlux;
-  const minPressure = reader.quantity(limitsInput.minPressure, "pressure", "/settings/limits/minPressure");
+  const minPressure = reader.quantity(
+    limitsInput.minPressure,
+    "pressure",
+    "/settings/limits/minPressure",
+  );
   if (minPressure !== undefined) limits.minPressure = minPressure;
 
   const settings = {
@@ -522,7 +546,11 @@ function readViscosity(
   return { kind: "sutherland", referenceViscosity, referenceTemperature, sutherlandConstant };
 }
 
-function readNode(node: NetworkDocument["nodes"][number], index: number, reader: Reader): CheckedNode {
+function readNode(
+  node: NetworkDocument["nodes"][number],
+  index: number,
+  reader: Reader,
+): CheckedNode {
   const path = jsonPointer("nodes", index);
   const checked: CheckedNode = { id: node.id, kind: node.kind, demand: 0 };
   if (node.kind === "reservoir") {

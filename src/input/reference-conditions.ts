@@ -7,8 +7,8 @@
  * are quoted in (60 degF, 14.696 psia) to SI.
  */
 
-import { MOLAR_GAS_CONSTANT } from "../gas/gas.js";
 import { create, type FactoryFunctionMap, unitDependencies } from "mathjs";
+import { MOLAR_GAS_CONSTANT } from "../gas/gas.js";
 
 /**
  * A private mathjs instance with the unit functions only. It is built once and never changed
@@ -16,7 +16,6 @@ import { create, type FactoryFunctionMap, unitDependencies } from "mathjs";
  */
 // mathjs types every exported dependency map as possibly undefined under noUncheckedIndexedAccess.
 const math = create({ unitDependencies: unitDependencies as FactoryFunctionMap });
-
 
 /** The names of the reference states machnet reads volumetric flows at. */
 export type ReferenceConditionName = "normal" | "standard" | "usStandard";

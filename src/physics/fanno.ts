@@ -103,7 +103,7 @@ function fannoSlope(inverseMachSquared: number, gamma: number): number {
  *   full relative precision there. Source: A. H. Shapiro, The Dynamics and Thermodynamics of
  *   Compressible Fluid Flow, Vol. I, Ronald Press, 1953, ch. 6; J. D. Anderson, Modern Compressible
  *   Flow, 3rd ed., McGraw-Hill, 2003, ch. 3 (flow with friction; Fanning form 4 f L* / D).
- * @example fannoParameter(0.5, 1.4) // 1.0690603... (PRACTICE.md 7.1: 1.0691; checked in
+ * @example fannoParameter(0.5, 1.4) // 1.06906031 (PRACTICE.md 7.1: 1.0691; checked in
  *   test/physics/fanno.test.ts)
  */
 export function fannoParameter(mach: number, gamma: number): number {
@@ -129,7 +129,7 @@ export function fannoParameter(mach: number, gamma: number): number {
  * @returns the limit of fD L* / D as M -> infinity [-]
  * @remarks Source: Shapiro, The Dynamics and Thermodynamics of Compressible Fluid Flow, Vol. I,
  *   1953, ch. 6; Anderson, Modern Compressible Flow, 3rd ed., 2003, ch. 3.
- * @example maxSupersonicFannoParameter(1.4) // 0.8215081164... (checked in test/physics/fanno.test.ts)
+ * @example maxSupersonicFannoParameter(1.4) // 0.82150812 (checked in test/physics/fanno.test.ts)
  */
 export function maxSupersonicFannoParameter(gamma: number): number {
   return fannoParameterOfInverseSquare(0, gamma);
@@ -167,7 +167,7 @@ export function fannoTemperatureRatio(mach: number, gamma: number): number {
  * @returns p / p* [-]
  * @remarks Adiabatic, constant area, calorically perfect gas. Source: Shapiro, Vol. I, 1953,
  *   ch. 6; Anderson, Modern Compressible Flow, 3rd ed., 2003, ch. 3.
- * @example fannoPressureRatio(0.5, 1.4) // 2.1380899... (PRACTICE.md 7.1: 2.1381; checked in
+ * @example fannoPressureRatio(0.5, 1.4) // 2.13808994 (PRACTICE.md 7.1: 2.1381; checked in
  *   test/physics/fanno.test.ts)
  */
 export function fannoPressureRatio(mach: number, gamma: number): number {
@@ -207,7 +207,7 @@ export function fannoDensityRatio(mach: number, gamma: number): number {
  * @returns p0 / p0* [-], >= 1
  * @remarks Adiabatic, constant area, calorically perfect gas. Source: Shapiro, Vol. I, 1953,
  *   ch. 6; Anderson, Modern Compressible Flow, 3rd ed., 2003, ch. 3.
- * @example fannoStagnationPressureRatio(0.5, 1.4) // 1.3397876... (PRACTICE.md 7.1: 1.3398;
+ * @example fannoStagnationPressureRatio(0.5, 1.4) // 1.33984375 (= 2 x 0.875^3; PRACTICE.md 7.1: 1.3398;
  *   checked in test/physics/fanno.test.ts)
  */
 export function fannoStagnationPressureRatio(mach: number, gamma: number): number {
@@ -234,7 +234,7 @@ export function fannoStagnationPressureRatio(mach: number, gamma: number): numbe
  *   the curvature, the tangent at s = 0 and the chord. Converged to about 1e-15 relative in s;
  *   near M = 1 the problem is ill-conditioned (P ~ (M - 1)^2). Source of the relation: Shapiro,
  *   Vol. I, 1953, ch. 6; Anderson, Modern Compressible Flow, 3rd ed., 2003, ch. 3.
- * @example machFromFannoParameter(1.0690603, 1.4, "subsonic") // 0.5000000... (checked in
+ * @example machFromFannoParameter(1.06906031, 1.4, "subsonic") // 0.50000000 (checked in
  *   test/physics/fanno.test.ts)
  */
 export function machFromFannoParameter(

@@ -178,11 +178,13 @@ function transitionLogFriction(reynolds: number, relativeRoughness: number, slop
  *   is out of range
  * @remarks Flow in the transition band is intermittent and no correlation predicts it; the blend
  *   is machnet's modelling choice (documented in docs/model.md), made so that a Newton solver sees
- *   a smooth friction law. Interpolating ln fD against ln Re keeps fD positive. The limits 2300 and
+ *   a smooth friction law. Interpolating ln fD against ln Re keeps fD positive; the cubic dips up
+ *   to about 4 % below 64/2300 just above Re = 2300 and overshoots fCW by about 0.1 % just below
+ *   4000 (a C1 blend between two falling curves that meet no level). The limits 2300 and
  *   4000 are common practice (see {@link LAMINAR_LIMIT_REYNOLDS}, {@link TURBULENT_LIMIT_REYNOLDS}).
  *   Sources: laminar, White, Fluid Mechanics, 7th ed., 2011, ch. 6; turbulent, Colebrook, J. ICE
  *   11(4), 1939 (see {@link colebrookWhite}).
- * @example darcyFrictionFactor(3000, 0) // 0.0408... (between 64/2300 = 0.0278 and
+ * @example darcyFrictionFactor(3000, 0) // 0.03129108 (between 64/2300 = 0.0278 and
  *   fCW(4000) = 0.0399; checked in test/physics/friction.test.ts)
  */
 export function darcyFrictionFactor(reynolds: number, relativeRoughness: number): number {
@@ -192,7 +194,8 @@ export function darcyFrictionFactor(reynolds: number, relativeRoughness: number)
     );
   }
   checkRoughness(relativeRoughness);
-  if (reynolds <= LAMINAR_LIMIT_REYNOLDS) return 64 / reynolds;
+  // min: 64/Re overflows for Re below about 3.6e-307; the largest double stands in for it.
+  if (reynolds <= LAMINAR_LIMIT_REYNOLDS) return Math.min(64 / reynolds, Number.MAX_VALUE);
   if (reynolds >= TURBULENT_LIMIT_REYNOLDS) {
     const x = colebrookInverseRoot(reynolds, relativeRoughness);
     return 1 / (x * x);

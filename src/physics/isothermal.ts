@@ -133,7 +133,7 @@ export function isothermalLimitingMach(gamma: number): number {
  *   ln term). Near the limiting Mach number it is summed as 2 [atanh(z) - z/(1 + z)],
  *   z = (gamma M^2 - 1)/(gamma M^2 + 1), by series, keeping full relative precision. Source:
  *   Shapiro, Vol. I, 1953, ch. 6 (isothermal flow in long ducts).
- * @example isothermalFrictionParameter(0.3, 1.4) // 5.0041... (checked in
+ * @example isothermalFrictionParameter(0.3, 1.4) // 4.86503456 (checked in
  *   test/physics/isothermal.test.ts)
  */
 export function isothermalFrictionParameter(mach: number, gamma: number): number {
@@ -160,7 +160,7 @@ export function isothermalFrictionParameter(mach: number, gamma: number): number
  * @returns p / p*t [-]
  * @remarks Perfect gas at constant static temperature, constant area. Source: Shapiro, Vol. I,
  *   1953, ch. 6.
- * @example isothermalPressureRatio(0.5, 1.4) // 1.6903085094570331 (checked in
+ * @example isothermalPressureRatio(0.5, 1.4) // 1.69030851 (checked in
  *   test/physics/isothermal.test.ts)
  */
 export function isothermalPressureRatio(mach: number, gamma: number): number {
@@ -180,7 +180,7 @@ export function isothermalPressureRatio(mach: number, gamma: number): number {
  * @remarks Safeguarded Newton iteration on q - 1 - ln q = parameter, q = 1/(gamma M^2), bracketed
  *   by q >= 1 + max(P, sqrt(2 P)) and one Newton step from there (convexity). Converged to about
  *   1e-15 relative in q. Source: Shapiro, Vol. I, 1953, ch. 6.
- * @example machFromIsothermalFrictionParameter(3.7, 1.4) // 0.32937... (checked in
+ * @example machFromIsothermalFrictionParameter(3.7, 1.4) // 0.32935639 (checked in
  *   test/physics/isothermal.test.ts)
  */
 export function machFromIsothermalFrictionParameter(parameter: number, gamma: number): number {
@@ -210,8 +210,8 @@ export function machFromIsothermalFrictionParameter(parameter: number, gamma: nu
  *   check that (it would cost a root solve); callers do. Source: Shapiro, Vol. I, 1953, ch. 6;
  *   the same form is in fluids.compressible.isothermal_gas (C. Bell, fluids, documentation of
  *   that function, which cites D. C. Rennels and H. M. Hudson, Pipe Flow, Wiley, 2012).
- * @example isothermalMassFlux(1e6, 9e5, 8.85e4 * 1, 1, 3.7) // ~740.96 (a 0.5 m pipe: 145.48 kg/s;
- *   checked in test/physics/isothermal.test.ts)
+ * @example isothermalMassFlux(1e6, 9e5, 287.05, 308.29, 3.7) // 740.95 [kg/(m2 s)]; times the area
+ *   of a 0.5 m pipe, 145.48 kg/s (checked in test/physics/isothermal.test.ts)
  */
 export function isothermalMassFlux(
   inletPressure: number,
@@ -251,7 +251,7 @@ export function isothermalMassFlux(
  *   Mach number is 1/sqrt(gamma). Solved by the same safeguarded Newton iteration as
  *   {@link machFromIsothermalFrictionParameter} (no Lambert W in JavaScript). Source: Shapiro,
  *   Vol. I, 1953, ch. 6; the W_-1 form is that of fluids.compressible.P_isothermal_critical_flow.
- * @example isothermalChokedPressureRatio(3.7) // 0.3896997... (checked in
+ * @example isothermalChokedPressureRatio(3.7) // 0.38969973 (checked in
  *   test/physics/isothermal.test.ts)
  */
 export function isothermalChokedPressureRatio(frictionParameter: number): number {

@@ -19,8 +19,9 @@
  *
  * This is the solver's hot path: one reusable output object, no allocation per call.
  */
-import { darcyFrictionFactor } from "./friction.js";
+
 import { fannoParameter, machFromFannoParameter } from "./fanno.js";
+import { darcyFrictionFactor, darcyFrictionFactorLogSlope } from "./friction.js";
 
 /** Geometry and friction of one pipe, in SI. */
 export interface PipeGeometry {
@@ -81,11 +82,15 @@ export class PipeFlowEvaluation {
   lastCapacityInletMach = Number.NaN;
 }
 
-/** Relative step of the central difference used for d(fD)/d(Re) and d(mu)/dT. */
+/** Relative step of the central difference used for d(mu)/dT. */
 const DIFFERENCE_STEP = 1e-6;
 
 /** Friction parameter fD L/D + K at a Reynolds number, and its derivative with respect to Re. */
-function frictionParameter(pipe: PipeGeometry, reynolds: number, out: { value: number; slope: number; factor: number }) {
+function frictionParameter(
+  pipe: PipeGeometry,
+  reynolds: number,
+  out: { value: number; slope: number; factor: number },
+) {
   const lengthRatio = pipe.length / pipe.diameter;
   if (!Number.isNaN(pipe.fixedFrictionFactor)) {
     // A fixed factor holds while it exceeds the laminar value; below that (vanishing flow) the
@@ -104,11 +109,7 @@ function frictionParameter(pipe: PipeGeometry, reynolds: number, out: { value: n
   }
   const relativeRoughness = pipe.roughness / pipe.diameter;
   const factor = darcyFrictionFactor(reynolds, relativeRoughness);
-  const h = DIFFERENCE_STEP * reynolds;
-  const slope =
-    (darcyFrictionFactor(reynolds + h, relativeRoughness) -
-      darcyFrictionFactor(reynolds - h, relativeRoughness)) /
-    (2 * h);
+  const slope = (factor * darcyFrictionFactorLogSlope(reynolds, relativeRoughness)) / reynolds;
   out.factor = factor;
   out.value = factor * lengthRatio + pipe.minorLoss;
   out.slope = slope * lengthRatio;
@@ -120,7 +121,11 @@ function frictionParameter(pipe: PipeGeometry, reynolds: number, out: { value: n
 // src/physics/fanno.ts. Derivatives by hand, checked against differences in the tests.
 
 function massFluxParameterOf(mach: number, gamma: number): number {
-  return mach * Math.sqrt(gamma) * (1 + 0.5 * (gamma - 1) * mach * mach) ** (-(gamma + 1) / (2 * (gamma - 1)));
+  return (
+    mach *
+    Math.sqrt(gamma) *
+    (1 + 0.5 * (gamma - 1) * mach * mach) ** (-(gamma + 1) / (2 * (gamma - 1)))
+  );
 }
 /** d ln Phi / dM = 1/M - ((gamma+1)/2) M / (1 + (gamma-1)/2 M^2) */
 function logMassFluxSlope(mach: number, gamma: number): number {
@@ -210,7 +215,13 @@ function evaluateAdiabatic(
   out.dArrivalTemperaturedDownstreamPressure = 0;
 
   // Capacity: solve h(M) = F(M) - X(M) = 0 on (0, 1] by safeguarded Newton.
-  const capacityMach = adiabaticCapacityMach(pipe, gamma, reynoldsScale, out.lastCapacityInletMach, friction);
+  const capacityMach = adiabaticCapacityMach(
+    pipe,
+    gamma,
+    reynoldsScale,
+    out.lastCapacityInletMach,
+    friction,
+  );
   out.lastCapacityInletMach = capacityMach;
   const phiCapacity = massFluxParameterOf(capacityMach, gamma);
   out.capacity = phiCapacity * fluxScale * area;
@@ -221,7 +232,7 @@ function evaluateAdiabatic(
     setZeroFlowAdiabatic(pipe, gas, p0, t0, mu, area, out);
     return;
   }
-  const targetLogRatio = Math.log(pd / p0);
+  const targetLogRatio = pd > 0 ? Math.log(pd / p0) : Number.NEGATIVE_INFINITY;
   if (targetLogRatio <= logChokedExitRatio) {
     // Choked: flow set by the upstream state alone.
     frictionParameter(pipe, phiCapacity * reynoldsScale, friction);
@@ -275,8 +286,11 @@ function evaluateAdiabatic(
     }
     exitMach = machFromFannoParameter(remaining, gamma, "subsonic");
     logRatio =
-      logIsentropicPressure(mach, gamma) - logFannoPressure(mach, gamma) + logFannoPressure(exitMach, gamma);
+      logIsentropicPressure(mach, gamma) -
+      logFannoPressure(mach, gamma) +
+      logFannoPressure(exitMach, gamma);
     const g = logRatio - targetLogRatio;
+    if (Math.abs(g) <= 1e-15) break;
     if (g > 0) lo = mach;
     else hi = mach;
     // dg/dM1 with the friction parameter following Re(M1).
@@ -291,7 +305,7 @@ function evaluateAdiabatic(
     if (!(next > lo && next < hi)) next = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
     const change = Math.abs(next - mach);
     mach = next;
-    if (change <= 1e-14 * mach || Math.abs(g) < 1e-15) break;
+    if (change <= 1e-15 * mach) break;
   }
   // Final state at the converged M1 (recomputed so every output belongs to one M1).
   const reynolds = massFluxParameterOf(mach, gamma) * reynoldsScale;
@@ -349,14 +363,16 @@ function adiabaticCapacityMach(
     frictionParameter(pipe, reynolds, friction);
     if (friction.value <= 0) return 1;
     const h = fannoParameter(mach, gamma) - friction.value;
+    if (Math.abs(h) <= 1e-15 * friction.value) break;
     if (h > 0) lo = mach;
     else hi = mach;
-    const slope = fannoSlope(mach, gamma) - friction.slope * reynolds * logMassFluxSlope(mach, gamma);
+    const slope =
+      fannoSlope(mach, gamma) - friction.slope * reynolds * logMassFluxSlope(mach, gamma);
     let next = slope < 0 ? mach - h / slope : Number.NaN;
     if (!(next > lo && next < hi)) next = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
     const change = Math.abs(next - mach);
     mach = next;
-    if (change <= 1e-14 * mach) break;
+    if (change <= 1e-15 * mach) break;
   }
   return mach;
 }
@@ -420,10 +436,12 @@ function evaluateIsothermal(
     const reynolds = flux * reynoldsPerFlux;
     frictionParameter(pipe, reynolds, friction);
     const value = ratio * ratio * (friction.value + 1 - 2 * Math.log(ratio)) - 1;
+    if (Math.abs(value) <= 1e-15) break;
     if (value > 0) hi = ratio;
     else lo = ratio;
     // d/dr with X(Re(r)): 2r(X - 2 ln r) + r^2 X_Re Re / r
-    const slope = 2 * ratio * (friction.value - 2 * Math.log(ratio)) + ratio * friction.slope * reynolds;
+    const slope =
+      2 * ratio * (friction.value - 2 * Math.log(ratio)) + ratio * friction.slope * reynolds;
     let next = ratio - value / slope;
     if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
     const change = Math.abs(next - ratio);
@@ -490,15 +508,21 @@ function evaluateIsothermal(
   let fluxHi = chokedFlux;
   if (!(flux > 0 && flux < fluxHi)) {
     frictionParameter(pipe, Math.max(0.5 * chokedFlux * reynoldsPerFlux, 1), friction);
-    flux = Math.min(0.9 * fluxHi, Math.sqrt(pressureSquares / (rt * (friction.value + 2 * logPressureRatio))));
+    flux = Math.min(
+      0.9 * fluxHi,
+      Math.sqrt(pressureSquares / (rt * (friction.value + 2 * logPressureRatio))),
+    );
   }
   for (let iteration = 0; iteration < 100; iteration++) {
     const reynolds = flux * reynoldsPerFlux;
     frictionParameter(pipe, reynolds, friction);
     const q = flux * flux * rt * (friction.value + 2 * logPressureRatio) - pressureSquares;
+    if (Math.abs(q) <= 1e-15 * pressureSquares) break;
     if (q > 0) fluxHi = flux;
     else fluxLo = flux;
-    const slope = 2 * flux * rt * (friction.value + 2 * logPressureRatio) + flux * rt * friction.slope * reynolds;
+    const slope =
+      2 * flux * rt * (friction.value + 2 * logPressureRatio) +
+      flux * rt * friction.slope * reynolds;
     let next = flux - q / slope;
     if (!(next > fluxLo && next < fluxHi)) next = 0.5 * (fluxLo + fluxHi);
     const change = Math.abs(next - flux);

@@ -10,15 +10,20 @@
  */
 import { gasViscosity } from "../gas/gas.js";
 import type { Gas } from "../gas/gas-types.js";
-import { darcyFrictionFactor } from "./friction.js";
 import { fannoParameter, fannoPressureRatio, machFromFannoParameter } from "./fanno.js";
+import { darcyFrictionFactor } from "./friction.js";
 import {
   isentropicPressureRatio,
   isentropicTemperatureRatio,
   machFromMassFluxParameter,
   maxMassFluxParameter,
 } from "./isentropic.js";
-import { evaluatePipeFlow, type PipeGas, type PipeGeometry, PipeFlowEvaluation } from "./pipe-flow.js";
+import {
+  evaluatePipeFlow,
+  PipeFlowEvaluation,
+  type PipeGas,
+  type PipeGeometry,
+} from "./pipe-flow.js";
 
 /** A pipe in SI units. */
 export interface Pipe {
@@ -105,13 +110,16 @@ export function pipeGas(gas: Gas): PipeGas {
 
 function checkPipe(pipe: Pipe, upstream: PlenumState): void {
   const problems: string[] = [];
-  if (!(pipe.length > 0 && Number.isFinite(pipe.length))) problems.push(`length must be > 0 m (got ${pipe.length})`);
+  if (!(pipe.length > 0 && Number.isFinite(pipe.length)))
+    problems.push(`length must be > 0 m (got ${pipe.length})`);
   if (!(pipe.diameter > 0 && Number.isFinite(pipe.diameter)))
     problems.push(`diameter must be > 0 m (got ${pipe.diameter})`);
-  if (pipe.roughness !== undefined && !(pipe.roughness >= 0)) problems.push(`roughness must be >= 0 m (got ${pipe.roughness})`);
+  if (pipe.roughness !== undefined && !(pipe.roughness >= 0))
+    problems.push(`roughness must be >= 0 m (got ${pipe.roughness})`);
   if (pipe.frictionFactor !== undefined && !(pipe.frictionFactor > 0))
     problems.push(`frictionFactor must be > 0 (got ${pipe.frictionFactor})`);
-  if (pipe.minorLoss !== undefined && !(pipe.minorLoss >= 0)) problems.push(`minorLoss must be >= 0 (got ${pipe.minorLoss})`);
+  if (pipe.minorLoss !== undefined && !(pipe.minorLoss >= 0))
+    problems.push(`minorLoss must be >= 0 (got ${pipe.minorLoss})`);
   if (!(upstream.pressure > 0 && Number.isFinite(upstream.pressure)))
     problems.push(`upstream pressure must be > 0 Pa (got ${upstream.pressure})`);
   if (!(upstream.temperature > 0 && Number.isFinite(upstream.temperature)))
@@ -181,9 +189,15 @@ export function endStatesOf(
  * pipeFlow(gasPreset("air"), { length: 50, diameter: 0.0525, roughness: 4.5e-5 },
  *   { pressure: 7e5, temperature: 293.15 }, 6.5e5).massFlow
  */
-export function pipeFlow(gas: Gas, pipe: Pipe, upstream: PlenumState, downstreamPressure: number): PipeFlowResult {
+export function pipeFlow(
+  gas: Gas,
+  pipe: Pipe,
+  upstream: PlenumState,
+  downstreamPressure: number,
+): PipeFlowResult {
   checkPipe(pipe, upstream);
-  if (!(downstreamPressure > 0)) throw new RangeError(`downstream pressure must be > 0 Pa (got ${downstreamPressure})`);
+  if (!(downstreamPressure > 0))
+    throw new RangeError(`downstream pressure must be > 0 Pa (got ${downstreamPressure})`);
   if (downstreamPressure > upstream.pressure) {
     throw new RangeError(
       `downstream pressure ${downstreamPressure} Pa is above the upstream pressure ${upstream.pressure} Pa; swap the ends`,
@@ -236,7 +250,12 @@ export type PipeOutletResult =
  * @example
  * pipeOutlet(gasPreset("air"), { length: 50, diameter: 0.0525 }, { pressure: 7e5, temperature: 293.15 }, 0.5)
  */
-export function pipeOutlet(gas: Gas, pipe: Pipe, upstream: PlenumState, massFlow: number): PipeOutletResult {
+export function pipeOutlet(
+  gas: Gas,
+  pipe: Pipe,
+  upstream: PlenumState,
+  massFlow: number,
+): PipeOutletResult {
   checkPipe(pipe, upstream);
   if (!(massFlow >= 0 && Number.isFinite(massFlow))) {
     throw new RangeError(`mass flow must be >= 0 kg/s (got ${massFlow})`);
@@ -249,7 +268,14 @@ export function pipeOutlet(gas: Gas, pipe: Pipe, upstream: PlenumState, massFlow
   const t0 = upstream.temperature;
   const area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
   // Capacity and choked exit pressure from the forward kernel at a vanishing back-pressure.
-  const capacityEvaluation = evaluatePipeFlow(geometry, kernelGas, p0, t0, p0 * 1e-9, new PipeFlowEvaluation());
+  const capacityEvaluation = evaluatePipeFlow(
+    geometry,
+    kernelGas,
+    p0,
+    t0,
+    p0 * 1e-9,
+    new PipeFlowEvaluation(),
+  );
   const capacity = capacityEvaluation.capacity;
   const overCapacity = (): PipeOutletResult => ({
     ok: false,
@@ -265,8 +291,12 @@ export function pipeOutlet(gas: Gas, pipe: Pipe, upstream: PlenumState, massFlow
   const reynolds = (flux * pipe.diameter) / mu;
   const frictionFactor = Number.isNaN(geometry.fixedFrictionFactor)
     ? darcyFrictionFactor(reynolds, geometry.roughness / geometry.diameter)
-    : Math.max(geometry.fixedFrictionFactor, reynolds > 0 ? 64 / reynolds : Number.POSITIVE_INFINITY);
-  const frictionParameter = frictionFactor * (geometry.length / geometry.diameter) + geometry.minorLoss;
+    : Math.max(
+        geometry.fixedFrictionFactor,
+        reynolds > 0 ? 64 / reynolds : Number.POSITIVE_INFINITY,
+      );
+  const frictionParameter =
+    frictionFactor * (geometry.length / geometry.diameter) + geometry.minorLoss;
   const evaluation = new PipeFlowEvaluation();
   evaluation.massFlow = massFlow;
   evaluation.capacity = capacity;
@@ -290,21 +320,25 @@ export function pipeOutlet(gas: Gas, pipe: Pipe, upstream: PlenumState, massFlow
     evaluation.outletMach = outletMach;
     evaluation.inletPressure = inletPressure;
     evaluation.outletPressure =
-      (inletPressure * fannoPressureRatio(outletMach, gamma)) / fannoPressureRatio(inletMach, gamma);
+      (inletPressure * fannoPressureRatio(outletMach, gamma)) /
+      fannoPressureRatio(inletMach, gamma);
     evaluation.choked = outletMach >= 1;
   } else {
     // Isothermal: bisection-safeguarded Newton on p2 in [G sqrt(RT), p1].
     const rt = r * t0;
     const lowest = flux * Math.sqrt(rt); // exit Mach 1/sqrt(gamma)
-    const h = (p2: number) => flux * flux * rt * (frictionParameter + 2 * Math.log(p0 / p2)) - (p0 * p0 - p2 * p2);
+    const h = (p2: number) =>
+      flux * flux * rt * (frictionParameter + 2 * Math.log(p0 / p2)) - (p0 * p0 - p2 * p2);
     if (h(lowest) > 0) return overCapacity();
     let lo = lowest;
     let hi = p0;
     let p2 = 0.5 * (lo + hi);
     for (let iteration = 0; iteration < 200; iteration++) {
       const value = h(p2);
-      if (value > 0) lo = p2;
-      else hi = p2;
+      if (value === 0) break;
+      // h rises with p2 on the subsonic branch: a positive h means p2 is too high.
+      if (value > 0) hi = p2;
+      else lo = p2;
       const slope = (-2 * flux * flux * rt) / p2 + 2 * p2;
       let next = p2 - value / slope;
       if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);

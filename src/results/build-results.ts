@@ -7,6 +7,7 @@ import { endStatesOf, pipeOutlet } from "../physics/pipe.js";
 import { evaluatePipeFlow, PipeFlowEvaluation, type PipeGeometry } from "../physics/pipe-flow.js";
 import {
   type NetworkSystem,
+  NO_FLOW_WEIGHT,
   networkThroughput,
   nodePressure,
   nodeTemperature,
@@ -53,13 +54,21 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     const pDown = forward ? pTo : pFrom;
     const tUp = nodeTemperature(system, x, upstream);
     const pipe = system.pipes[e] as PipeGeometry;
-    const evaluation = evaluatePipeFlow(pipe, system.gas, pUp, tUp, pDown, new PipeFlowEvaluation());
+    const evaluation = evaluatePipeFlow(
+      pipe,
+      system.gas,
+      pUp,
+      tUp,
+      pDown,
+      new PipeFlowEvaluation(),
+    );
     const flow = evaluation.massFlow;
     const signed = forward ? flow : -flow;
     netOutflow[from] = (netOutflow[from] as number) + signed;
     netOutflow[to] = (netOutflow[to] as number) - signed;
     inflowMagnitude[downstream] = (inflowMagnitude[downstream] as number) + flow;
-    enthalpyArriving[downstream] = (enthalpyArriving[downstream] as number) + flow * cp * evaluation.arrivalTemperature;
+    enthalpyArriving[downstream] =
+      (enthalpyArriving[downstream] as number) + flow * cp * evaluation.arrivalTemperature;
     heatIn += flow * cp * (evaluation.arrivalTemperature - tUp);
 
     if (!evaluation.choked && flow > 0) {
@@ -70,7 +79,9 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
           length: pipe.length,
           diameter: pipe.diameter,
           roughness: pipe.roughness,
-          ...(Number.isNaN(pipe.fixedFrictionFactor) ? {} : { frictionFactor: pipe.fixedFrictionFactor }),
+          ...(Number.isNaN(pipe.fixedFrictionFactor)
+            ? {}
+            : { frictionFactor: pipe.fixedFrictionFactor }),
           minorLoss: pipe.minorLoss,
           model: pipe.model,
         },
@@ -123,12 +134,18 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
         massOut += -supplied;
         enthalpyOut += enthalpyArriving[index] as number;
       }
-      nodes.push({ id: node.id, kind: node.kind, pressure, temperature, demand: supplied === 0 ? 0 : -supplied });
+      nodes.push({
+        id: node.id,
+        kind: node.kind,
+        pressure,
+        temperature,
+        demand: supplied === 0 ? 0 : -supplied,
+      });
       return;
     }
     const demand = node.demand;
     const injection = demand < 0 ? -demand : 0;
-    const delivered = demand > 0 ? demand : 0;
+    const delivered = Math.max(demand, 0);
     massIn += injection;
     massOut += delivered;
     const injectedEnthalpy =
@@ -145,7 +162,10 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
       largestEnergyImbalance,
       Math.abs(energyImbalance) / (throughput * cp * temperatureReference),
     );
-    if ((inflowMagnitude[index] as number) === 0 && injection === 0) noFlowJunctions.push(index);
+    // No flow: below the solver's resolution of flows (the no-flow weight's scale).
+    if ((inflowMagnitude[index] as number) <= NO_FLOW_WEIGHT * throughput && injection === 0) {
+      noFlowJunctions.push(index);
+    }
     nodes.push({ id: node.id, kind: node.kind, pressure, temperature, demand });
   });
 
@@ -217,7 +237,11 @@ export function designWarnings(
     }
   }
   for (const node of results.nodes) {
-    if (node.kind === "junction" && limits.minPressure !== undefined && node.pressure < limits.minPressure) {
+    if (
+      node.kind === "junction" &&
+      limits.minPressure !== undefined &&
+      node.pressure < limits.minPressure
+    ) {
       warnings.push({
         code: "limit-pressure",
         node: node.id,

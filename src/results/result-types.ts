@@ -125,7 +125,13 @@ export interface NetworkResult {
   /** Name from the document. */
   name: string;
   /** The gas, as used. */
-  gas: { name: string; molarMass: number; heatCapacityRatio: number; specificGasConstant: number; specificHeatCp: number };
+  gas: {
+    name: string;
+    molarMass: number;
+    heatCapacityRatio: number;
+    specificGasConstant: number;
+    specificHeatCp: number;
+  };
   /** Ambient state the gauge pressures were read against. */
   ambient: { pressure: number; temperature: number };
 }

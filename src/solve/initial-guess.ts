@@ -46,7 +46,8 @@ export function initialGuess(system: NetworkSystem): Float64Array {
     const factor = Number.isNaN(pipe.fixedFrictionFactor)
       ? darcyFrictionFactor(1e6, pipe.roughness / pipe.diameter)
       : pipe.fixedFrictionFactor;
-    resistance[e] = (rt * (factor * (pipe.length / pipe.diameter) + pipe.minorLoss + 1)) / (area * area);
+    resistance[e] =
+      (rt * (factor * (pipe.length / pipe.diameter) + pipe.minorLoss + 1)) / (area * area);
     // Flow that a 10 % drop of p^2 across this edge alone would carry: the edge's own scale.
     flowMagnitude[e] = Math.sqrt((0.1 * squaredScale) / (resistance[e] as number));
   }
@@ -66,7 +67,7 @@ export function initialGuess(system: NetworkSystem): Float64Array {
     }
     for (let e = 0; e < edgeCount; e++) {
       const conductance =
-        (squaredScale / ((resistance[e] as number) * Math.max(flowMagnitude[e] as number, 1e-12)));
+        squaredScale / ((resistance[e] as number) * Math.max(flowMagnitude[e] as number, 1e-12));
       const from = model.edgeFrom[e] as number;
       const to = model.edgeTo[e] as number;
       const a = model.unknownIndex[from] as number;
@@ -75,12 +76,16 @@ export function initialGuess(system: NetworkSystem): Float64Array {
       if (a >= 0) {
         addAt(values, 4 * (system.edgeBlocks[4 * e] as number), -conductance);
         if (b >= 0) addAt(values, 4 * (system.edgeBlocks[4 * e + 1] as number), conductance);
-        else rhs[2 * a] = (rhs[2 * a] as number) - (conductance * (squared[to] as number)) / squaredScale;
+        else
+          rhs[2 * a] =
+            (rhs[2 * a] as number) - (conductance * (squared[to] as number)) / squaredScale;
       }
       if (b >= 0) {
         addAt(values, 4 * (system.edgeBlocks[4 * e + 3] as number), -conductance);
         if (a >= 0) addAt(values, 4 * (system.edgeBlocks[4 * e + 2] as number), conductance);
-        else rhs[2 * b] = (rhs[2 * b] as number) - (conductance * (squared[from] as number)) / squaredScale;
+        else
+          rhs[2 * b] =
+            (rhs[2 * b] as number) - (conductance * (squared[from] as number)) / squaredScale;
       }
     }
     const solution = solveFactored(factorBlockMatrix(structure, values), rhs);
@@ -95,27 +100,41 @@ export function initialGuess(system: NetworkSystem): Float64Array {
       const to = model.edgeTo[e] as number;
       const difference = (squared[from] as number) - (squared[to] as number);
       const flow =
-        (difference / ((resistance[e] as number) * Math.max(flowMagnitude[e] as number, 1e-12)));
+        difference / ((resistance[e] as number) * Math.max(flowMagnitude[e] as number, 1e-12));
       signedFlow[e] = flow;
       flowMagnitude[e] = 0.5 * ((flowMagnitude[e] as number) + Math.abs(flow));
     }
   }
 
-  // Temperatures: mixing balance with the guessed flows (adiabatic edges carry T upstream).
+  // Temperatures: mixing balance with the guessed flows (adiabatic edges carry T upstream). Each
+  // row is divided by its diagonal (inflow + injection + weight) so the rows are of order 1.
   const values = new Float64Array(4 * structure.blockCount);
   const rhs = new Float64Array(2 * junctionCount);
   let throughput = 0;
-  for (let node = 0; node < nodeCount; node++) throughput += Math.abs(system.demand[node] as number);
-  throughput = Math.max(throughput, 1e-9);
+  for (let node = 0; node < nodeCount; node++)
+    throughput += Math.abs(system.demand[node] as number);
+  const weight = NO_FLOW_WEIGHT * Math.max(throughput, 1e-9);
+  const diagonal = new Float64Array(junctionCount);
   for (let j = 0; j < junctionCount; j++) {
     const node = model.junctionNodes[j] as number;
-    values[4 * j] = 1; // pressure slot unused here
     const demand = system.demand[node] as number;
-    const weight = NO_FLOW_WEIGHT * throughput + 1e-9 * throughput;
-    values[4 * j + 3] = -(weight + (demand < 0 ? -demand : 0));
+    diagonal[j] = weight + (demand < 0 ? -demand : 0);
+  }
+  for (let e = 0; e < edgeCount; e++) {
+    const flow = signedFlow[e] as number;
+    const downstream = flow > 0 ? (model.edgeTo[e] as number) : (model.edgeFrom[e] as number);
+    const d = model.unknownIndex[downstream] as number;
+    if (flow !== 0 && d >= 0) diagonal[d] = (diagonal[d] as number) + Math.abs(flow);
+  }
+  for (let j = 0; j < junctionCount; j++) {
+    const node = model.junctionNodes[j] as number;
+    const demand = system.demand[node] as number;
+    const scale = diagonal[j] as number;
+    values[4 * j] = 1; // pressure slot unused here
+    values[4 * j + 3] = -1;
     rhs[2 * j + 1] =
-      -(weight * supplyTemperature) -
-      (demand < 0 ? -demand * (system.injectionTemperature[node] as number) : 0);
+      -(weight * supplyTemperature) / scale -
+      (demand < 0 ? (-demand * (system.injectionTemperature[node] as number)) / scale : 0);
   }
   for (let e = 0; e < edgeCount; e++) {
     const flow = signedFlow[e] as number;
@@ -127,13 +146,13 @@ export function initialGuess(system: NetworkSystem): Float64Array {
     const d = model.unknownIndex[downstream] as number;
     if (d < 0) continue;
     const u = model.unknownIndex[upstream] as number;
-    const magnitude = Math.abs(flow);
-    values[4 * d + 3] = (values[4 * d + 3] as number) - magnitude;
+    const share = Math.abs(flow) / (diagonal[d] as number);
     if (u >= 0) {
       const block = system.edgeBlocks[4 * e + (flow > 0 ? 2 : 1)] as number;
-      values[4 * block + 3] = (values[4 * block + 3] as number) + magnitude;
+      values[4 * block + 3] = (values[4 * block + 3] as number) + share;
     } else {
-      rhs[2 * d + 1] = (rhs[2 * d + 1] as number) - magnitude * (system.fixedTemperature[upstream] as number);
+      rhs[2 * d + 1] =
+        (rhs[2 * d + 1] as number) - share * (system.fixedTemperature[upstream] as number);
     }
   }
   const temperatures = solveFactored(factorBlockMatrix(structure, values), rhs);

@@ -7,23 +7,38 @@
  * Residuals per junction j (docs/model.md, "Network equations"):
  *   mass:   sum of edge flows into j - demand_j = 0,                     scaled by throughput W
  *   energy: sum over inflowing edges of m_e (T_arrive,e - T_j)
- *           + injection_j (T_injected - T_j) + eps W (T_ambient - T_j) = 0, scaled by W T_ref
+ *           + injection_j (T_injected - T_j) + w_j (T_ambient - T_j) = 0,
+ *           scaled by (inflow_j + injection_j + w_j) T_ref, so it reads as a temperature error over
+ *           T_ref (a bound on the enthalpy imbalance over W cp T_ref as well)
  * The energy balance is written in this mixing form (the enthalpy balance minus cp T_j times the
- * mass balance), so a junction's temperature depends only on the gas arriving there. The eps term
- * (eps = 1e-12) gives a junction that no gas reaches the ambient temperature instead of a
- * singular equation; elsewhere it moves temperatures by less than 1e-12 of W/(flow through j).
+ * mass balance), so a junction's temperature depends only on the gas arriving there. The weight
+ * w_j = (eps W)^2 / (inflow_j + injection_j + eps W), eps = 1e-9 (the default tolerance), gives a junction that no
+ * gas reaches the ambient temperature instead of a singular equation, even when round-off leaves
+ * a flow of order eps W through it; where gas does flow (inflow_j >> eps W) it moves the
+ * temperature by about (eps W / inflow_j)^2 of the difference to ambient: nothing.
  *
  * Edge flows are functions of the node states (src/physics/pipe-flow.ts): the upstream end is the
  * one at higher pressure; a choked edge's flow does not depend on its downstream pressure.
  */
 import { gasViscosity } from "../gas/gas.js";
 import type { NetworkModel } from "../model/build-network.js";
-import { evaluatePipeFlow, type PipeGas, type PipeGeometry, PipeFlowEvaluation } from "../physics/pipe-flow.js";
+import {
+  evaluatePipeFlow,
+  PipeFlowEvaluation,
+  type PipeGas,
+  type PipeGeometry,
+} from "../physics/pipe-flow.js";
 import type { BlockLuStructure } from "./sparse-block-lu.js";
 import { analyzeBlockPattern } from "./sparse-block-lu.js";
 
-/** Weight of the ambient-temperature term that regularises junctions without flow. */
-export const NO_FLOW_WEIGHT = 1e-12;
+/** Relative weight eps of the ambient-temperature term that regularises junctions without flow. */
+export const NO_FLOW_WEIGHT = 1e-9;
+
+/** The weight w_j of a junction's ambient-temperature term for a given inflow [kg/s]. */
+export function noFlowWeight(throughput: number, inflow: number): number {
+  const floor = NO_FLOW_WEIGHT * throughput;
+  return (floor * floor) / (inflow + floor);
+}
 
 /**
  * In the Jacobian only, a choked edge's flow is given a slope of this fraction of its upstream
@@ -193,6 +208,7 @@ export function evaluateSystem(
   const arrivalSlopes = new Float64Array(4 * edgeCount);
   const nodeCount = model.document.nodes.length;
   const nodeNetOutflow = new Float64Array(nodeCount);
+  const nodeInflow = new Float64Array(nodeCount);
 
   for (let e = 0; e < edgeCount; e++) {
     const from = model.edgeFrom[e] as number;
@@ -228,6 +244,8 @@ export function evaluateSystem(
     arrivalSlopes[4 * e + upP] = result.dArrivalTemperaturedUpstreamPressure;
     arrivalSlopes[4 * e + upT] = result.dArrivalTemperaturedUpstreamTemperature;
     arrivalSlopes[4 * e + downP] = result.dArrivalTemperaturedDownstreamPressure;
+    const downstreamNode = forward ? to : from;
+    nodeInflow[downstreamNode] = (nodeInflow[downstreamNode] as number) + result.massFlow;
     nodeNetOutflow[from] = (nodeNetOutflow[from] as number) + (massFlow[e] as number);
     nodeNetOutflow[to] = (nodeNetOutflow[to] as number) - (massFlow[e] as number);
   }
@@ -235,7 +253,15 @@ export function evaluateSystem(
   let scale = throughput;
   if (scale === undefined) scale = networkThroughput(system, nodeNetOutflow);
   const temperatureScale = system.temperatureScale;
-  const energyScale = scale * temperatureScale;
+  // Energy rows are scaled per junction by (inflow + injection + w) T_ref: the residual is then the
+  // junction's temperature error relative to T_ref, enforced alike at busy and quiet junctions.
+  const energyScale = new Float64Array(junctionCount);
+  for (let j = 0; j < junctionCount; j++) {
+    const node = model.junctionNodes[j] as number;
+    const demand = system.demand[node] as number;
+    const supplied = (nodeInflow[node] as number) + (demand < 0 ? -demand : 0);
+    energyScale[j] = (supplied + noFlowWeight(scale, supplied)) * temperatureScale;
+  }
   const residual = new Float64Array(2 * junctionCount);
   for (let j = 0; j < junctionCount; j++) {
     const node = model.junctionNodes[j] as number;
@@ -243,7 +269,8 @@ export function evaluateSystem(
     const demand = system.demand[node] as number;
     // mass: inflow - demand = -(net outflow to edges) - demand
     residual[2 * j] = (-(nodeNetOutflow[node] as number) - demand) / scale;
-    let energy = NO_FLOW_WEIGHT * scale * (system.ambientTemperature - t);
+    const supplied = (nodeInflow[node] as number) + (demand < 0 ? -demand : 0);
+    let energy = noFlowWeight(scale, supplied) * (system.ambientTemperature - t);
     if (demand < 0) energy += -demand * ((system.injectionTemperature[node] as number) - t);
     residual[2 * j + 1] = energy;
   }
@@ -258,7 +285,7 @@ export function evaluateSystem(
       (residual[2 * unknown + 1] as number) + Math.abs(flow) * ((arrival[e] as number) - t);
   }
   for (let j = 0; j < junctionCount; j++) {
-    residual[2 * j + 1] = (residual[2 * j + 1] as number) / energyScale;
+    residual[2 * j + 1] = (residual[2 * j + 1] as number) / (energyScale[j] as number);
   }
 
   let jacobian: Float64Array | undefined;
@@ -270,8 +297,10 @@ export function evaluateSystem(
     for (let j = 0; j < junctionCount; j++) {
       const node = model.junctionNodes[j] as number;
       const demand = system.demand[node] as number;
-      const diagonal = -(NO_FLOW_WEIGHT * scale + (demand < 0 ? -demand : 0));
-      jacobian[4 * j + 3] = (jacobian[4 * j + 3] as number) + (diagonal * tS) / energyScale;
+      const weight = noFlowWeight(scale, (nodeInflow[node] as number) + (demand < 0 ? -demand : 0));
+      const diagonal = -(weight + (demand < 0 ? -demand : 0));
+      jacobian[4 * j + 3] =
+        (jacobian[4 * j + 3] as number) + (diagonal * tS) / (energyScale[j] as number);
     }
     for (let e = 0; e < edgeCount; e++) {
       const from = model.edgeFrom[e] as number;
@@ -288,9 +317,12 @@ export function evaluateSystem(
           const block = system.edgeBlocks[4 * e + 2 * row + column] as number;
           if (block < 0) continue;
           const b = 4 * block;
-          jacobian[b] = (jacobian[b] as number) + (sign * (flowSlopes[4 * e + 2 * column] as number) * pS) / scale;
+          jacobian[b] =
+            (jacobian[b] as number) +
+            (sign * (flowSlopes[4 * e + 2 * column] as number) * pS) / scale;
           jacobian[b + 1] =
-            (jacobian[b + 1] as number) + (sign * (flowSlopes[4 * e + 2 * column + 1] as number) * tS) / scale;
+            (jacobian[b + 1] as number) +
+            (sign * (flowSlopes[4 * e + 2 * column + 1] as number) * tS) / scale;
         }
       }
       if (flow === 0) {
@@ -320,8 +352,9 @@ export function evaluateSystem(
           magnitudeSign * (flowSlopes[4 * e + 2 * column + 1] as number) * difference +
           magnitude * (arrivalSlopes[4 * e + 2 * column + 1] as number);
         if (column === downstreamRow) dT -= magnitude;
-        jacobian[b + 2] = (jacobian[b + 2] as number) + (dP * pS) / energyScale;
-        jacobian[b + 3] = (jacobian[b + 3] as number) + (dT * tS) / energyScale;
+        const rowScale = energyScale[rowUnknown] as number;
+        jacobian[b + 2] = (jacobian[b + 2] as number) + (dP * pS) / rowScale;
+        jacobian[b + 3] = (jacobian[b + 3] as number) + (dT * tS) / rowScale;
       }
     }
   }

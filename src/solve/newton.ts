@@ -41,7 +41,8 @@ const MIN_STEP = 1e-6;
 
 function largest(residual: Float64Array, offset: number): number {
   let value = 0;
-  for (let i = offset; i < residual.length; i += 2) value = Math.max(value, Math.abs(residual[i] as number));
+  for (let i = offset; i < residual.length; i += 2)
+    value = Math.max(value, Math.abs(residual[i] as number));
   return value;
 }
 
@@ -57,7 +58,11 @@ function allFinite(values: Float64Array): boolean {
 }
 
 /** Run damped Newton from x0 (scaled unknowns). */
-export function newtonSolve(system: NetworkSystem, x0: Float64Array, options: NewtonOptions): NewtonOutcome {
+export function newtonSolve(
+  system: NetworkSystem,
+  x0: Float64Array,
+  options: NewtonOptions,
+): NewtonOutcome {
   let x: Float64Array = Float64Array.from(x0);
   const started = options.now?.();
   let evaluation = evaluateSystem(system, x, true);
@@ -81,7 +86,10 @@ export function newtonSolve(system: NetworkSystem, x0: Float64Array, options: Ne
     if (!allFinite(evaluation.residual)) return outcome(false, "non-finite");
     // Converged when the residuals at this state's own throughput meet the tolerance.
     // (evaluation always uses this state's own throughput here.)
-    if (Math.max(largest(evaluation.residual, 0), largest(evaluation.residual, 1)) <= options.tolerance) {
+    if (
+      Math.max(largest(evaluation.residual, 0), largest(evaluation.residual, 1)) <=
+      options.tolerance
+    ) {
       return outcome(true);
     }
     if (iterations >= options.maxIterations) return outcome(false, "iterations");
@@ -108,7 +116,8 @@ export function newtonSolve(system: NetworkSystem, x0: Float64Array, options: Ne
       const t = x[2 * j + 1] as number;
       const dp = step[2 * j] as number;
       const dt = step[2 * j + 1] as number;
-      if (Math.abs(dp) > MAX_PRESSURE_CHANGE * p) limit = Math.min(limit, (MAX_PRESSURE_CHANGE * p) / Math.abs(dp));
+      if (Math.abs(dp) > MAX_PRESSURE_CHANGE * p)
+        limit = Math.min(limit, (MAX_PRESSURE_CHANGE * p) / Math.abs(dp));
       if (Math.abs(dt) > MAX_TEMPERATURE_CHANGE * t)
         limit = Math.min(limit, (MAX_TEMPERATURE_CHANGE * t) / Math.abs(dt));
     }
@@ -129,10 +138,14 @@ export function newtonSolve(system: NetworkSystem, x0: Float64Array, options: Ne
       alpha *= 0.5;
     }
     if (accepted === undefined) {
-      // No decrease along the Newton direction: take the smallest step anyway once, to leave a
-      // kink of the residual (a choke or flow-reversal point); stop if that does not help.
+      // No decrease along the Newton direction: take one short step anyway to leave a kink of
+      // the residual (a choke or flow-reversal point), if it keeps every state positive and
+      // lowers the residual; otherwise stop.
+      const alphaShort = Math.min(limit, 1e-3);
       const trial = new Float64Array(x.length);
-      for (let i = 0; i < x.length; i++) trial[i] = (x[i] as number) + MIN_STEP * 10 * (step[i] as number);
+      for (let i = 0; i < x.length; i++)
+        trial[i] = (x[i] as number) + alphaShort * (step[i] as number);
+      if (!trial.every((value) => value > 0)) return outcome(false, "stalled");
       const trialEvaluation = evaluateSystem(system, trial, false, evaluation.throughput);
       if (!(squaredNorm(trialEvaluation.residual) < norm)) return outcome(false, "stalled");
       accepted = { x: trial, evaluation: trialEvaluation };
@@ -140,7 +153,7 @@ export function newtonSolve(system: NetworkSystem, x0: Float64Array, options: Ne
     x = accepted.x;
     evaluation = evaluateSystem(system, x, true);
     const currentNorm = squaredNorm(evaluation.residual);
-    if (currentNorm < best.norm || !Number.isFinite(best.norm)) best = { x, evaluation, norm: currentNorm };
+    if (currentNorm < best.norm || !Number.isFinite(best.norm))
+      best = { x, evaluation, norm: currentNorm };
   }
 }
-

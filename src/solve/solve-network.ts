@@ -69,7 +69,10 @@ export function modelOf(checked: CheckedDocument): NetworkModel {
 }
 
 /** Solve a document that has already been read and checked. */
-export function solveCheckedDocument(checked: CheckedDocument, options: SolveOptions = {}): NetworkResult {
+export function solveCheckedDocument(
+  checked: CheckedDocument,
+  options: SolveOptions = {},
+): NetworkResult {
   const model = modelOf(checked);
   const system = createNetworkSystem(model);
   const settings = checked.settings;
@@ -81,7 +84,7 @@ export function solveCheckedDocument(checked: CheckedDocument, options: SolveOpt
   };
 
   const start = options.initialResult
-    ? stateFromResult(system, options.initialResult) ?? initialGuess(system)
+    ? (stateFromResult(system, options.initialResult) ?? initialGuess(system))
     : initialGuess(system);
   let outcome = newtonSolve(system, start, newtonOptions);
   let iterations = outcome.iterations;
@@ -163,7 +166,10 @@ function hasDemands(system: NetworkSystem): boolean {
 }
 
 /** Scaled unknowns from a previous result (matching node ids), or undefined if it does not fit. */
-function stateFromResult(system: NetworkSystem, previous: Pick<NetworkResult, "nodes">): Float64Array | undefined {
+function stateFromResult(
+  system: NetworkSystem,
+  previous: Pick<NetworkResult, "nodes">,
+): Float64Array | undefined {
   const byId = new Map(previous.nodes.map((node) => [node.id, node]));
   const x = new Float64Array(2 * system.junctionCount);
   const nodes = system.model.document.nodes;
@@ -194,7 +200,10 @@ function withDemandScale(system: NetworkSystem, scale: number): NetworkSystem {
  * Ramp the demands from zero to their stated values, each step warm-started from the last solved
  * one, halving the step on failure. Returns the largest scale reached.
  */
-function continuation(system: NetworkSystem, options: Parameters<typeof newtonSolve>[2]): ContinuationOutcome {
+function continuation(
+  system: NetworkSystem,
+  options: Parameters<typeof newtonSolve>[2],
+): ContinuationOutcome {
   let iterations = 0;
   let steps = 0;
   const zero = withDemandScale(system, 0);
@@ -221,7 +230,11 @@ function continuation(system: NetworkSystem, options: Parameters<typeof newtonSo
 }
 
 /** Why a network with fixed demands has no solution: how far it gets, and which edges choke. */
-function diagnose(system: NetworkSystem, direct: NewtonOutcome, rescue: ContinuationOutcome): NoSolutionDiagnosis {
+function diagnose(
+  system: NetworkSystem,
+  direct: NewtonOutcome,
+  rescue: ContinuationOutcome,
+): NoSolutionDiagnosis {
   const doc = system.model.document;
   const limitingEdges: NoSolutionDiagnosis["limitingEdges"] = [];
   if (rescue.outcome) {
@@ -249,7 +262,10 @@ function diagnose(system: NetworkSystem, direct: NewtonOutcome, rescue: Continua
   const edgesText =
     limitingEdges.length > 0
       ? `; at that point ${limitingEdges.length === 1 ? "edge" : "edges"} ${limitingEdges
-          .map((edge) => `${edge.id} (${edge.massFlow.toPrecision(4)} kg/s of a capacity of ${edge.capacity.toPrecision(4)} kg/s)`)
+          .map(
+            (edge) =>
+              `${edge.id} (${edge.massFlow.toPrecision(4)} kg/s of a capacity of ${edge.capacity.toPrecision(4)} kg/s)`,
+          )
           .join(", ")} ${limitingEdges.length === 1 ? "is" : "are"} choked or at capacity`
       : "";
   const message =
