@@ -5,8 +5,8 @@
  * @module
  */
 
-import { isentropicAreaRatio } from "./isentropic.js";
 import type { FlowBranch } from "./isentropic.js";
+import { isentropicAreaRatio } from "./isentropic.js";
 import { safeguardedNewton } from "./scalar-root.js";
 
 /** Below this |z| the kernel is summed as a series (the closed form cancels there). */
@@ -73,9 +73,7 @@ function fannoSupersonicResidual(
   const z = (1 - s) / (s + gamma);
   if (Math.abs(z) < SERIES_LIMIT) return ((gamma + 1) / gamma) * frictionKernelSeries(z) - target;
   return (
-    s / gamma -
-    ((gamma + 1) / (2 * gamma)) * Math.log1p((2 * s) / (gamma - 1)) +
-    limitMinusTarget
+    s / gamma - ((gamma + 1) / (2 * gamma)) * Math.log1p((2 * s) / (gamma - 1)) + limitMinusTarget
   );
 }
 
@@ -248,8 +246,7 @@ export function machFromFannoParameter(
   if (parameter === 0) return 1;
   if (branch === "subsonic") {
     if (parameter === Number.POSITIVE_INFINITY) return 0;
-    const lower =
-      1 + Math.max(gamma * parameter, Math.sqrt(gamma * (gamma + 1) * parameter));
+    const lower = 1 + Math.max(gamma * parameter, Math.sqrt(gamma * (gamma + 1) * parameter));
     const residualAtLower = fannoResidual(lower, gamma, parameter);
     if (residualAtLower >= 0) return 1 / Math.sqrt(lower);
     const upper = lower - residualAtLower / fannoSlope(lower, gamma);

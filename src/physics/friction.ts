@@ -131,10 +131,14 @@ function colebrookLogSlope(reynolds: number, relativeRoughness: number, x: numbe
 
 /**
  * ln fD in the transition band as a cubic Hermite polynomial in ln Re, matching value and slope of
- * the laminar law at 2300 and of Colebrook-White at 4000. Returns ln fD and, through the second
- * call form, d ln fD / d ln Re.
+ * the laminar law at 2300 and of Colebrook-White at 4000. Returns ln fD, or with `slope` true
+ * d ln fD / d ln Re.
  */
-function transitionLogFriction(reynolds: number, relativeRoughness: number, slope: boolean): number {
+function transitionLogFriction(
+  reynolds: number,
+  relativeRoughness: number,
+  slope: boolean,
+): number {
   const width = LOG_TURBULENT_LIMIT - LOG_LAMINAR_LIMIT;
   const t = (Math.log(reynolds) - LOG_LAMINAR_LIMIT) / width;
   const startValue = Math.log(64) - LOG_LAMINAR_LIMIT;
@@ -180,7 +184,8 @@ function transitionLogFriction(reynolds: number, relativeRoughness: number, slop
  *   is machnet's modelling choice (documented in docs/model.md), made so that a Newton solver sees
  *   a smooth friction law. Interpolating ln fD against ln Re keeps fD positive; the cubic dips up
  *   to about 4 % below 64/2300 just above Re = 2300 and overshoots fCW by about 0.1 % just below
- *   4000 (a C1 blend between two falling curves that meet no level). The limits 2300 and
+ *   4000, since both end curves fall with Re while the blend rises from 0.0278 to fCW(4000).
+ *   The limits 2300 and
  *   4000 are common practice (see {@link LAMINAR_LIMIT_REYNOLDS}, {@link TURBULENT_LIMIT_REYNOLDS}).
  *   Sources: laminar, White, Fluid Mechanics, 7th ed., 2011, ch. 6; turbulent, Colebrook, J. ICE
  *   11(4), 1939 (see {@link colebrookWhite}).

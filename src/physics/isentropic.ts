@@ -209,9 +209,7 @@ function logAreaRatioResidual(logMach: number, gamma: number, logTarget: number)
   const exponent = (gamma + 1) / (2 * (gamma - 1));
   const machSquaredMinusOne = Math.expm1(2 * logMach);
   return (
-    -logMach +
-    exponent * Math.log1p(((gamma - 1) / (gamma + 1)) * machSquaredMinusOne) -
-    logTarget
+    -logMach + exponent * Math.log1p(((gamma - 1) / (gamma + 1)) * machSquaredMinusOne) - logTarget
   );
 }
 
@@ -269,7 +267,10 @@ function machFromLogAreaRatio(logTarget: number, gamma: number, branch: FlowBran
   } else {
     // Lower bound from ln(A/A*) <= 2 y / (gamma - 1) and from the curvature bound; upper bound
     // from A/A* >= (1/M) ((gamma - 1) M^2 / (gamma + 1))^e, the large-M asymptote.
-    lower = Math.max(0.5 * (gamma - 1) * logTarget, Math.sqrt((2 * logTarget) / curvatureSupersonic));
+    lower = Math.max(
+      0.5 * (gamma - 1) * logTarget,
+      Math.sqrt((2 * logTarget) / curvatureSupersonic),
+    );
     upper = 0.5 * (gamma - 1) * (logTarget + exponent * Math.log((gamma + 1) / (gamma - 1)));
     guess = logTarget < 0.5 ? sonicSeries - cubicShift : upper;
   }

@@ -73,8 +73,7 @@ function gammaMachSquaredMinusOne(mach: number, gamma: number): number {
   const machSplit = SPLITTER * mach;
   const machHigh = machSplit - (machSplit - mach);
   const machLow = mach - machHigh;
-  const squareError =
-    machHigh * machHigh - square + 2 * machHigh * machLow + machLow * machLow;
+  const squareError = machHigh * machHigh - square + 2 * machHigh * machLow + machLow * machLow;
   // gamma * square = product + productError exactly
   const product = gamma * square;
   const gammaSplit = SPLITTER * gamma;

@@ -59,7 +59,7 @@ export function safeguardedNewton(
 ): number {
   let low = lower;
   let high = upper;
-  let x = guess > low ? (guess < high ? guess : high) : low;
+  let x = guess > low ? Math.min(guess, high) : low; // a NaN guess starts at `lower`
   let stepBeforeLast = high - low;
   let lastStep = stepBeforeLast;
   for (let iteration = 0; iteration < MAXIMUM_ITERATIONS; iteration++) {

@@ -3,6 +3,8 @@
  * the result's own edges and nodes (not from the solver's balance) or by hand from the document.
  */
 import { existsSync, readFileSync } from "node:fs";
+import { readFile } from "node:fs/promises";
+import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import {
   checkNetwork,
@@ -85,7 +87,10 @@ function throughputOf(result: NetworkResult): number {
   }
   let sum = 0;
   for (const entry of result.nodes) {
-    sum += entry.kind === "reservoir" ? Math.abs(reservoirNet.get(entry.id) ?? 0) : Math.abs(entry.demand);
+    sum +=
+      entry.kind === "reservoir"
+        ? Math.abs(reservoirNet.get(entry.id) ?? 0)
+        : Math.abs(entry.demand);
   }
   return 0.5 * sum;
 }
@@ -148,8 +153,12 @@ describe.each(EXAMPLE_FILES)("example %s", (file) => {
       const upstreamTemperature = node(result, upstreamOf(entry)).temperature;
       for (const end of [entry.inlet, entry.outlet]) {
         const t0 = stagnationFromStatic(end.temperature, end.velocity, cp);
-        expect(Math.abs(t0 / upstreamTemperature - 1), `edge ${entry.id}`).toBeLessThanOrEqual(1e-12);
-        expect(Math.abs(end.stagnationTemperature / upstreamTemperature - 1)).toBeLessThanOrEqual(1e-12);
+        expect(Math.abs(t0 / upstreamTemperature - 1), `edge ${entry.id}`).toBeLessThanOrEqual(
+          1e-12,
+        );
+        expect(Math.abs(end.stagnationTemperature / upstreamTemperature - 1)).toBeLessThanOrEqual(
+          1e-12,
+        );
       }
     }
   });
@@ -168,7 +177,8 @@ describe.each(EXAMPLE_FILES)("example %s", (file) => {
         if (downstreamOf(entry) !== junction.id || entry.massFlow === 0) continue;
         const flow = Math.abs(entry.massFlow);
         mass += flow;
-        enthalpy += flow * stagnationFromStatic(entry.outlet.temperature, entry.outlet.velocity, cp);
+        enthalpy +=
+          flow * stagnationFromStatic(entry.outlet.temperature, entry.outlet.velocity, cp);
       }
       if (junction.demand < 0) {
         const written = document.nodes.find((entry) => entry.id === junction.id);
@@ -177,7 +187,10 @@ describe.each(EXAMPLE_FILES)("example %s", (file) => {
         enthalpy += injected * kelvinFromText(written?.temperature);
       }
       expect(mass, `junction ${junction.id} receives gas`).toBeGreaterThan(0);
-      expect(Math.abs(enthalpy / mass / junction.temperature - 1), `junction ${junction.id}`).toBeLessThanOrEqual(1e-9);
+      expect(
+        Math.abs(enthalpy / mass / junction.temperature - 1),
+        `junction ${junction.id}`,
+      ).toBeLessThanOrEqual(1e-9);
     }
   });
 });
@@ -204,7 +217,8 @@ describe("workshop ring main", () => {
     // 1e-12 relative: exact definitions, rounding only.
     const { result } = example(file);
     expect(result.gas.molarMass).toBe(0.02896442);
-    const density = (pressure: number, temperature: number) => (pressure * 0.02896442) / (8.314462618 * temperature);
+    const density = (pressure: number, temperature: number) =>
+      (pressure * 0.02896442) / (8.314462618 * temperature);
     const normal = density(101325, 273.15);
     const psi = (0.45359237 * 9.80665) / 0.0254 ** 2;
     const usStandard = density(14.696 * psi, (60 - 32) / 1.8 + 273.15);
@@ -234,7 +248,9 @@ describe("workshop ring main", () => {
     // 6-9 m/s in mains as vendor practice).
     const { result } = example(file);
     const receiver = node(result, "R-101").pressure;
-    const lowest = Math.min(...result.nodes.filter((entry) => entry.demand > 0).map((entry) => entry.pressure));
+    const lowest = Math.min(
+      ...result.nodes.filter((entry) => entry.demand > 0).map((entry) => entry.pressure),
+    );
     expect(receiver - lowest).toBeGreaterThan(0.1e5);
     expect(receiver - lowest).toBeLessThan(0.3e5);
     for (const entry of result.edges.filter((candidate) => candidate.id.startsWith("RING-"))) {
@@ -284,7 +300,9 @@ describe("vent collection header", () => {
 
   it("chokes exactly one edge, the RV-101 tailpipe, with outlet Mach 1 above the lateral's pressure", () => {
     const { result } = example(file);
-    expect(result.edges.filter((entry) => entry.choked).map((entry) => entry.id)).toEqual(["TAIL-101"]);
+    expect(result.edges.filter((entry) => entry.choked).map((entry) => entry.id)).toEqual([
+      "TAIL-101",
+    ]);
     const tailpipe = edge(result, "TAIL-101");
     // Tolerance 1e-9: the choked state is exactly Mach 1 up to the root-solver's tolerance.
     expect(Math.abs(tailpipe.outlet.mach - 1)).toBeLessThanOrEqual(1e-9);
@@ -303,7 +321,8 @@ describe("vent collection header", () => {
     const t0 = kelvinFromText(document.nodes.find((entry) => entry.id === "RV-101")?.temperature);
     const area = (Math.PI / 4) * 0.05248 ** 2;
     const sonicTemperature = (2 * t0) / (gamma + 1);
-    const sonicPressure = (Math.abs(tailpipe.massFlow) / area) * Math.sqrt((r * sonicTemperature) / gamma);
+    const sonicPressure =
+      (Math.abs(tailpipe.massFlow) / area) * Math.sqrt((r * sonicTemperature) / gamma);
     expect(Math.abs(tailpipe.outlet.pressure / sonicPressure - 1)).toBeLessThanOrEqual(1e-9);
     expect(Math.abs(tailpipe.outlet.temperature / sonicTemperature - 1)).toBeLessThanOrEqual(1e-9);
   });
@@ -316,7 +335,10 @@ describe("vent collection header", () => {
     const { document, result } = example(file);
     const relief = (id: string) => {
       const written = document.nodes.find((entry) => entry.id === id);
-      return { mass: -kilogramsPerSecondFromText(written?.demand), temperature: kelvinFromText(written?.temperature) };
+      return {
+        mass: -kilogramsPerSecondFromText(written?.demand),
+        temperature: kelvinFromText(written?.temperature),
+      };
     };
     const mix = (streams: { mass: number; temperature: number }[]) =>
       streams.reduce((sum, stream) => sum + stream.mass * stream.temperature, 0) /
@@ -328,24 +350,70 @@ describe("vent collection header", () => {
     expect(Math.abs(node(result, "STACK-BASE").temperature / second - 1)).toBeLessThanOrEqual(1e-9);
   });
 
-  it("stays below Mach 0.7 everywhere but the tailpipe, which alone is flagged", () => {
+  it("stays below Mach 0.7 and 200000 Pa rho v^2 everywhere but the tailpipe, which alone is flagged", () => {
     const { result } = example(file);
     for (const entry of result.edges.filter((candidate) => candidate.id !== "TAIL-101")) {
       expect(Math.max(entry.inlet.mach, entry.outlet.mach), entry.id).toBeLessThan(0.7);
+      const momentumFlux = Math.max(
+        entry.inlet.density * entry.inlet.velocity ** 2,
+        entry.outlet.density * entry.outlet.velocity ** 2,
+      );
+      expect(momentumFlux, entry.id).toBeLessThan(200_000);
     }
-    const flagged = result.warnings.map((warning) => `${warning.code} ${warning.edge ?? warning.node ?? ""}`);
-    expect(flagged.sort()).toEqual(["choked TAIL-101", "limit-mach TAIL-101"]);
+    const flagged = result.warnings.map(
+      (warning) => `${warning.code} ${warning.edge ?? warning.node ?? ""}`,
+    );
+    expect(flagged.sort()).toEqual([
+      "choked TAIL-101",
+      "limit-mach TAIL-101",
+      "limit-momentum-flux TAIL-101",
+    ]);
   });
 });
 
 describe("docs/examples/README.md", () => {
   const readme = new URL("README.md", EXAMPLES);
+  const text = existsSync(readme) ? readFileSync(readme, "utf8") : "";
+  /** Command lines in the README's code blocks: `npx machnet ...`, split at spaces. */
+  const commands = [...text.matchAll(/^npx machnet (.+)$/gm)].map((match) =>
+    (match[1] ?? "").trim().split(/\s+/),
+  );
 
   it.runIf(existsSync(readme))("names only example files that exist, and every example", () => {
-    const text = readFileSync(readme, "utf8");
-    const named = [...text.matchAll(/docs\/examples\/[A-Za-z0-9._-]+\.json/g)].map((match) => match[0]);
+    const named = [...text.matchAll(/docs\/examples\/[A-Za-z0-9._-]+\.json/g)].map(
+      (match) => match[0],
+    );
     expect(named.length).toBeGreaterThan(0);
     for (const path of named) expect(existsSync(new URL(path, REPOSITORY)), path).toBe(true);
     for (const file of EXAMPLE_FILES) expect(named).toContain(`docs/examples/${file}`);
+    expect(commands.length).toBeGreaterThan(0);
   });
+
+  it.runIf(existsSync(readme))(
+    "runs every command it shows, each ending with exit code 0",
+    async () => {
+      // The command line is imported here only, so that the tests above do not depend on it.
+      const { main } = await import("../../src/cli/main.js");
+      for (const args of commands) {
+        let stdout = "";
+        let stderr = "";
+        const code = await main(args, {
+          stdout: (chunk) => {
+            stdout += chunk;
+          },
+          stderr: (chunk) => {
+            stderr += chunk;
+          },
+          readFile: (path) => readFile(fileURLToPath(new URL(path, REPOSITORY))),
+          writeFile: () => Promise.reject(new Error("README commands must not write files")),
+          env: {},
+        });
+        expect(code, `machnet ${args.join(" ")}\n${stderr}`).toBe(0);
+        expect(stdout.length, `machnet ${args.join(" ")}`).toBeGreaterThan(0);
+        if (args.includes("json")) {
+          expect((JSON.parse(stdout) as NetworkResult).status).toBe("converged");
+        }
+      }
+    },
+  );
 });

@@ -97,7 +97,24 @@ describe("Fanno flow on the supersonic branch (gamma = 1.4, from memory + closed
 });
 
 describe("Fanno closed forms against a 40-digit evaluation", () => {
-  const machs = [1e-6, 1e-3, 0.1, 0.5, 0.9, 0.99, 0.9999, 1 - 1e-8, 1 + 1e-8, 1.0001, 1.01, 1.5, 3, 10, 1e3, 1e6];
+  const machs = [
+    1e-6,
+    1e-3,
+    0.1,
+    0.5,
+    0.9,
+    0.99,
+    0.9999,
+    1 - 1e-8,
+    1 + 1e-8,
+    1.0001,
+    1.01,
+    1.5,
+    3,
+    10,
+    1e3,
+    1e6,
+  ];
   it("fannoParameter agrees to 1e-14 relative, also next to Mach 1 where it is of order (M - 1)^2", () => {
     for (const gamma of [1.1, 1.3, 1.4, 1.67]) {
       for (const mach of machs) {
@@ -120,7 +137,9 @@ describe("Fanno closed forms against a 40-digit evaluation", () => {
           [STAGNATION_PRESSURE, fannoStagnationPressureRatio],
         ] as const) {
           const reference = highPrecision(expression, scope);
-          expect(relativeError(relation(mach, gamma), reference)).toBeLessThan(powerTolerance(reference));
+          expect(relativeError(relation(mach, gamma), reference)).toBeLessThan(
+            powerTolerance(reference),
+          );
         }
       }
     }
@@ -128,9 +147,13 @@ describe("Fanno closed forms against a 40-digit evaluation", () => {
 
   it("maxSupersonicFannoParameter is the M -> infinity limit (gamma + 1)/(2 gamma) ln((gamma + 1)/(gamma - 1)) - 1/gamma", () => {
     for (const gamma of [1.1, 1.3, 1.4, 1.67]) {
-      const reference = highPrecision("(g + 1) / (2 * g) * log((g + 1) / (g - 1)) - 1 / g", { g: gamma });
+      const reference = highPrecision("(g + 1) / (2 * g) * log((g + 1) / (g - 1)) - 1 / g", {
+        g: gamma,
+      });
       expect(relativeError(maxSupersonicFannoParameter(gamma), reference)).toBeLessThan(1e-15);
-      expect(fannoParameter(Number.POSITIVE_INFINITY, gamma)).toBe(maxSupersonicFannoParameter(gamma));
+      expect(fannoParameter(Number.POSITIVE_INFINITY, gamma)).toBe(
+        maxSupersonicFannoParameter(gamma),
+      );
     }
   });
 
@@ -173,7 +196,9 @@ describe("Fanno properties", () => {
   it("the density ratio is the velocity ratio V*/V and p/p* = (rho/rho*)(T/T*)", () => {
     for (const mach of [0.2, 0.7, 1.3, 2.5]) {
       const rho = fannoDensityRatio(mach, 1.4);
-      expect(relativeError(fannoPressureRatio(mach, 1.4), rho * fannoTemperatureRatio(mach, 1.4))).toBeLessThan(1e-15);
+      expect(
+        relativeError(fannoPressureRatio(mach, 1.4), rho * fannoTemperatureRatio(mach, 1.4)),
+      ).toBeLessThan(1e-15);
     }
   });
 });
@@ -210,7 +235,9 @@ describe("machFromFannoParameter", () => {
           const mach = machFromFannoParameter(parameter, gamma, branch);
           expect(branch === "subsonic" ? mach < 1 : mach > 1).toBe(true);
           const tolerance = 1e-12 * Math.max(1, Math.abs(fannoLogSlope(mach, gamma)));
-          expect(relativeError(fannoParameter(mach, gamma), parameter)).toBeLessThanOrEqual(tolerance);
+          expect(relativeError(fannoParameter(mach, gamma), parameter)).toBeLessThanOrEqual(
+            tolerance,
+          );
         }
       }
     }

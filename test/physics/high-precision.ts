@@ -3,10 +3,11 @@
  * (mathjs 15 BigNumber) and tolerances derived from printed precision. The closed forms are
  * written in the tests from the published equations, never taken from the code under test.
  */
-import { all, create } from "mathjs";
+import { all, create, type FactoryFunctionMap } from "mathjs";
 import { expect } from "vitest";
 
-const math = create(all, { number: "BigNumber", precision: 40 });
+// mathjs types `all` as possibly undefined; it is always defined in mathjs 15.
+const math = create(all as FactoryFunctionMap, { number: "BigNumber", precision: 40 });
 
 /**
  * The exact value of a double as a BigNumber (mathjs converts a number through its shortest

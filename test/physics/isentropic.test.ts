@@ -88,7 +88,8 @@ describe("isentropic ratios against PRACTICE.md 7.1 and 7.2 (CALC rows)", () => 
       [1.67, "0.48667"],
       [1.11, "0.58259"],
     ];
-    for (const [gamma, printed] of cases) expectAtPrintedPrecision(criticalPressureRatio(gamma), printed);
+    for (const [gamma, printed] of cases)
+      expectAtPrintedPrecision(criticalPressureRatio(gamma), printed);
   });
 
   it("reproduces T* = 413.28 K and p* = 766.81 kPa for T0 = 473 K, p0 = 1.4 MPa, gamma = 1.289 (Cengel & Cimbala, Fluid Mechanics, 2006, Ex. 12-4, via fluids T_critical_flow / P_critical_flow doctests; PRACTICE.md 7.2)", () => {
@@ -117,7 +118,9 @@ describe("isentropic closed forms against a 40-digit evaluation", () => {
       for (const mach of machs) {
         for (const [expression, relation] of relations) {
           const reference = highPrecision(expression, { M: mach, g: gamma });
-          expect(relativeError(relation(mach, gamma), reference)).toBeLessThan(powerTolerance(reference));
+          expect(relativeError(relation(mach, gamma), reference)).toBeLessThan(
+            powerTolerance(reference),
+          );
         }
       }
     }
@@ -127,8 +130,15 @@ describe("isentropic closed forms against a 40-digit evaluation", () => {
     for (const gamma of [1.1, 1.3, 1.4, 1.67]) {
       const reference = highPrecision(MASS_FLUX, { M: 1, g: gamma });
       expect(relativeError(maxMassFluxParameter(gamma), reference)).toBeLessThan(1e-14);
-      expect(relativeError(criticalTemperatureRatio(gamma), highPrecision(TEMPERATURE, { M: 1, g: gamma }))).toBeLessThan(1e-15);
-      expect(relativeError(criticalPressureRatio(gamma), highPrecision(PRESSURE, { M: 1, g: gamma }))).toBeLessThan(1e-14);
+      expect(
+        relativeError(
+          criticalTemperatureRatio(gamma),
+          highPrecision(TEMPERATURE, { M: 1, g: gamma }),
+        ),
+      ).toBeLessThan(1e-15);
+      expect(
+        relativeError(criticalPressureRatio(gamma), highPrecision(PRESSURE, { M: 1, g: gamma })),
+      ).toBeLessThan(1e-14);
     }
   });
 
@@ -152,7 +162,8 @@ describe("isentropic inversions", () => {
    * the inverse must amplify by no more than the condition number 1 / |d ln ratio / d ln M|.
    * The floor is 1e-12 (the accuracy asked of every inversion).
    */
-  const machRoundTripTolerance = (logSlope: number) => Math.max(1e-12, (16 * EPSILON) / Math.abs(logSlope));
+  const machRoundTripTolerance = (logSlope: number) =>
+    Math.max(1e-12, (16 * EPSILON) / Math.abs(logSlope));
   /** Ratio -> Mach -> ratio: the Mach number is exact to the solver's 1e-15, times |d ln ratio / d ln M|. */
   const ratioRoundTripTolerance = (logSlope: number) => 1e-12 * Math.max(1, Math.abs(logSlope));
 
@@ -163,9 +174,15 @@ describe("isentropic inversions", () => {
         const t = isentropicTemperatureRatio(mach, gamma);
         const fromP = machFromPressureRatio(p, gamma);
         const fromT = machFromTemperatureRatio(t, gamma);
-        expect(relativeError(fromP, mach)).toBeLessThanOrEqual(machRoundTripTolerance(pressureLogSlope(mach, gamma)));
-        expect(relativeError(fromT, mach)).toBeLessThanOrEqual(machRoundTripTolerance(temperatureLogSlope(mach, gamma)));
-        expect(relativeError(isentropicPressureRatio(fromP, gamma), p)).toBeLessThanOrEqual(ratioRoundTripTolerance(pressureLogSlope(mach, gamma)));
+        expect(relativeError(fromP, mach)).toBeLessThanOrEqual(
+          machRoundTripTolerance(pressureLogSlope(mach, gamma)),
+        );
+        expect(relativeError(fromT, mach)).toBeLessThanOrEqual(
+          machRoundTripTolerance(temperatureLogSlope(mach, gamma)),
+        );
+        expect(relativeError(isentropicPressureRatio(fromP, gamma), p)).toBeLessThanOrEqual(
+          ratioRoundTripTolerance(pressureLogSlope(mach, gamma)),
+        );
       }),
       { seed: SEED, numRuns: 2000 },
     );
@@ -174,9 +191,14 @@ describe("isentropic inversions", () => {
   it("machFromPressureRatio keeps full precision for ratios next to 1 and 0", () => {
     // Closed form at 40 digits: M = sqrt(2/(g-1) (r^(-(g-1)/g) - 1)).
     for (const ratio of [1 - 2 ** -52, 1 - 1e-12, 0.999, 0.5, 1e-10, 1e-300]) {
-      const reference = highPrecision("sqrt(2 / (g - 1) * (r ^ (-(g - 1) / g) - 1))", { r: ratio, g: 1.4 });
+      const reference = highPrecision("sqrt(2 / (g - 1) * (r ^ (-(g - 1) / g) - 1))", {
+        r: ratio,
+        g: 1.4,
+      });
       // The power r^(-(g-1)/g) carries about epsilon |ln r| relative (see powerTolerance).
-      expect(relativeError(machFromPressureRatio(ratio, 1.4), reference)).toBeLessThan(powerTolerance(ratio));
+      expect(relativeError(machFromPressureRatio(ratio, 1.4), reference)).toBeLessThan(
+        powerTolerance(ratio),
+      );
     }
     expect(machFromPressureRatio(1, 1.4)).toBe(0);
     expect(machFromPressureRatio(0, 1.4)).toBe(Number.POSITIVE_INFINITY);
@@ -190,7 +212,9 @@ describe("isentropic inversions", () => {
         const back = machFromAreaRatio(area, gamma, branch);
         const slope = areaLogSlope(mach, gamma);
         expect(relativeError(back, mach)).toBeLessThanOrEqual(machRoundTripTolerance(slope));
-        expect(relativeError(isentropicAreaRatio(back, gamma), area)).toBeLessThanOrEqual(ratioRoundTripTolerance(slope));
+        expect(relativeError(isentropicAreaRatio(back, gamma), area)).toBeLessThanOrEqual(
+          ratioRoundTripTolerance(slope),
+        );
       }),
       { seed: SEED, numRuns: 2000 },
     );
@@ -198,13 +222,27 @@ describe("isentropic inversions", () => {
 
   it("machFromAreaRatio returns a Mach number whose area ratio is the input, from A/A* = 1 + 1e-15 to 1e100", () => {
     for (const gamma of [1.1, 1.4, 1.67]) {
-      for (const area of [1 + 1e-15, 1 + 1e-12, 1 + 1e-8, 1.0001, 1.01, 1.5, 3, 10, 1e4, 1e10, 1e100]) {
+      for (const area of [
+        1 + 1e-15,
+        1 + 1e-12,
+        1 + 1e-8,
+        1.0001,
+        1.01,
+        1.5,
+        3,
+        10,
+        1e4,
+        1e10,
+        1e100,
+      ]) {
         for (const branch of ["subsonic", "supersonic"] as const) {
           const mach = machFromAreaRatio(area, gamma, branch);
           expect(branch === "subsonic" ? mach <= 1 : mach >= 1).toBe(true);
           // Recomputing A/A* from the double M costs |d ln A / d ln M| times M's rounding.
           const tolerance = 1e-12 * Math.max(1, Math.abs(areaLogSlope(mach, gamma)));
-          expect(relativeError(isentropicAreaRatio(mach, gamma), area)).toBeLessThanOrEqual(tolerance);
+          expect(relativeError(isentropicAreaRatio(mach, gamma), area)).toBeLessThanOrEqual(
+            tolerance,
+          );
         }
       }
     }
@@ -218,7 +256,9 @@ describe("isentropic inversions", () => {
         const back = machFromMassFluxParameter(parameter, gamma, branch);
         const slope = areaLogSlope(mach, gamma);
         expect(relativeError(back, mach)).toBeLessThanOrEqual(machRoundTripTolerance(slope));
-        expect(relativeError(massFluxParameter(back, gamma), parameter)).toBeLessThanOrEqual(ratioRoundTripTolerance(slope));
+        expect(relativeError(massFluxParameter(back, gamma), parameter)).toBeLessThanOrEqual(
+          ratioRoundTripTolerance(slope),
+        );
       }),
       { seed: SEED, numRuns: 2000 },
     );
@@ -229,14 +269,22 @@ describe("isentropic inversions", () => {
     expect(machFromMassFluxParameter(maxMassFluxParameter(1.4), 1.4, "subsonic")).toBe(1);
     expect(machFromMassFluxParameter(maxMassFluxParameter(1.4), 1.4, "supersonic")).toBe(1);
     // A parameter one rounding above the maximum is taken as sonic.
-    expect(machFromMassFluxParameter(maxMassFluxParameter(1.4) * (1 + 2 * EPSILON), 1.4, "subsonic")).toBe(1);
+    expect(
+      machFromMassFluxParameter(maxMassFluxParameter(1.4) * (1 + 2 * EPSILON), 1.4, "subsonic"),
+    ).toBe(1);
   });
 
   it("the inversions reject out-of-range input with a RangeError naming the limit", () => {
     expect(() => machFromPressureRatio(1.2, 1.4)).toThrow(RangeError);
-    expect(() => machFromPressureRatio(1.2, 1.4)).toThrow("pressure ratio p/p0 must be in [0, 1] (got 1.2)");
-    expect(() => machFromTemperatureRatio(0, 1.4)).toThrow("temperature ratio T/T0 must be in (0, 1] (got 0)");
-    expect(() => machFromAreaRatio(0.9, 1.4, "subsonic")).toThrow("area ratio A/A* must be a finite number >= 1 (got 0.9)");
+    expect(() => machFromPressureRatio(1.2, 1.4)).toThrow(
+      "pressure ratio p/p0 must be in [0, 1] (got 1.2)",
+    );
+    expect(() => machFromTemperatureRatio(0, 1.4)).toThrow(
+      "temperature ratio T/T0 must be in (0, 1] (got 0)",
+    );
+    expect(() => machFromAreaRatio(0.9, 1.4, "subsonic")).toThrow(
+      "area ratio A/A* must be a finite number >= 1 (got 0.9)",
+    );
     expect(() => machFromAreaRatio(Number.NaN, 1.4, "subsonic")).toThrow(RangeError);
     expect(() => machFromMassFluxParameter(0.7, 1.4, "subsonic")).toThrow(
       `mass-flux parameter G sqrt(R T0)/p0 must be in [0, ${maxMassFluxParameter(1.4)}] for gamma 1.4 (got 0.7)`,
@@ -276,7 +324,11 @@ describe("@example values in src/physics/isentropic.ts", () => {
     expect(Math.abs(machFromAreaRatio(1.6875, 1.4, "supersonic") - 2)).toBeLessThan(1e-15);
   });
   it("@example of machFromMassFluxParameter", () => {
-    expect(Math.abs(machFromMassFluxParameter(0.5, 1.4, "subsonic") - 0.48509219)).toBeLessThan(5e-9);
-    expect(Math.abs(machFromMassFluxParameter(0.5, 1.4, "supersonic") - 1.73299072)).toBeLessThan(5e-9);
+    expect(Math.abs(machFromMassFluxParameter(0.5, 1.4, "subsonic") - 0.48509219)).toBeLessThan(
+      5e-9,
+    );
+    expect(Math.abs(machFromMassFluxParameter(0.5, 1.4, "supersonic") - 1.73299072)).toBeLessThan(
+      5e-9,
+    );
   });
 });

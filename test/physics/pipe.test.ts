@@ -1,0 +1,136 @@
+import { describe, expect, it } from "vitest";
+import { gasPreset, type Pipe, pipeFlow, pipeOutlet } from "../../src/index.js";
+import { type PipeGeometry, evaluatePipeFlow, PipeFlowEvaluation } from "../../src/physics/pipe-flow.js";
+import { pipeGas, pipeGeometry } from "../../src/physics/pipe.js";
+
+const air = gasPreset("air");
+const upstream = { pressure: 7e5, temperature: 293.15 };
+
+const pipes: [string, Pipe][] = [
+  ["adiabatic, Colebrook-White", { length: 50, diameter: 0.0525, roughness: 4.5e-5 }],
+  ["adiabatic, fixed friction factor and fittings", { length: 12, diameter: 0.0266, frictionFactor: 0.024, minorLoss: 3.5 }],
+  ["isothermal, Colebrook-White", { length: 800, diameter: 0.1023, roughness: 5e-5, model: "isothermal" }],
+  ["isothermal, fixed friction factor", { length: 60, diameter: 0.0409, frictionFactor: 0.02, model: "isothermal" }],
+];
+
+describe("pipeFlow and pipeOutlet are inverses", () => {
+  for (const [name, pipe] of pipes) {
+    it(`gives the outlet pressure back from the flow (${name})`, () => {
+      for (const fraction of [0.999, 0.97, 0.8, 0.5]) {
+        const flow = pipeFlow(air, pipe, upstream, fraction * upstream.pressure);
+        if (flow.choked) continue;
+        const back = pipeOutlet(air, pipe, upstream, flow.massFlow);
+        expect(back.ok).toBe(true);
+        if (back.ok) {
+          expect(Math.abs(back.flow.outlet.pressure / (fraction * upstream.pressure) - 1)).toBeLessThan(1e-10);
+          expect(back.flow.outlet.mach).toBeCloseTo(flow.outlet.mach, 10);
+        }
+      }
+    });
+
+    it(`says a flow above the capacity cannot pass and gives the capacity (${name})`, () => {
+      const choked = pipeFlow(air, pipe, upstream, 1000);
+      expect(choked.choked).toBe(true);
+      const result = pipeOutlet(air, pipe, upstream, 1.05 * choked.capacity);
+      expect(result.ok).toBe(false);
+      if (!result.ok) {
+        expect(result.capacity).toBeCloseTo(choked.capacity, 12);
+        expect(result.chokedOutletPressure).toBeCloseTo(choked.outlet.pressure, 6);
+        expect(result.message).toMatch(/cannot pass: the pipe chokes at/);
+      }
+    });
+  }
+
+  it("refuses impossible pipes and states with a message naming the value", () => {
+    expect(() => pipeFlow(air, { length: 0, diameter: 0.05 }, upstream, 6e5)).toThrow(/length must be > 0 m \(got 0\)/);
+    expect(() => pipeFlow(air, { length: 5, diameter: 0.05 }, { pressure: 7e5, temperature: -3 }, 6e5)).toThrow(
+      /upstream temperature must be > 0 K/,
+    );
+    expect(() => pipeFlow(air, { length: 5, diameter: 0.05 }, upstream, 8e5)).toThrow(/above the upstream pressure/);
+  });
+});
+
+describe("an independent integration of adiabatic flow with friction", () => {
+  // dM/dx and dp/dx of Fanno flow (A. H. Shapiro, The Dynamics and Thermodynamics of Compressible
+  // Fluid Flow, 1953, Table 8.1, Darcy f = 4 f_Fanning), integrated here by classical fourth-order
+  // Runge-Kutta with 20,000 steps, from the inlet state pipeFlow reports to the pipe's end.
+  it("arrives at the downstream pressure and exit Mach number pipeFlow reports", () => {
+    const g = 1.4;
+    const pipe: Pipe = { length: 30, diameter: 0.0409, frictionFactor: 0.021 };
+    const flow = pipeFlow(air, pipe, upstream, 5.2e5);
+    const f = 0.021;
+    const d = 0.0409;
+    const rhs = (m: number, p: number): [number, number] => {
+      const common = ((g * m * m) / (2 * (1 - m * m))) * (f / d);
+      return [m * (1 + 0.5 * (g - 1) * m * m) * common, -p * (1 + (g - 1) * m * m) * common];
+    };
+    let m = flow.inlet.mach;
+    let p = flow.inlet.pressure;
+    const steps = 20000;
+    const h = pipe.length / steps;
+    for (let i = 0; i < steps; i++) {
+      const k1 = rhs(m, p);
+      const k2 = rhs(m + 0.5 * h * k1[0], p + 0.5 * h * k1[1]);
+      const k3 = rhs(m + 0.5 * h * k2[0], p + 0.5 * h * k2[1]);
+      const k4 = rhs(m + h * k3[0], p + h * k3[1]);
+      m += (h / 6) * (k1[0] + 2 * k2[0] + 2 * k3[0] + k4[0]);
+      p += (h / 6) * (k1[1] + 2 * k2[1] + 2 * k3[1] + k4[1]);
+    }
+    expect(Math.abs(p / 5.2e5 - 1)).toBeLessThan(1e-9);
+    expect(Math.abs(m / flow.outlet.mach - 1)).toBeLessThan(1e-9);
+  });
+});
+
+describe("derivatives of the pipe flow used by the network Jacobian", () => {
+  const kernelGas = pipeGas(air);
+  function evaluate(pipe: PipeGeometry, p0: number, t0: number, pd: number) {
+    return evaluatePipeFlow(pipe, kernelGas, p0, t0, pd, new PipeFlowEvaluation());
+  }
+  const states: [string, Pipe, number][] = [
+    ["adiabatic subsonic, turbulent", pipes[0]?.[1] as Pipe, 6.2e5],
+    ["adiabatic subsonic, fixed f", pipes[1]?.[1] as Pipe, 5.0e5],
+    ["adiabatic choked", pipes[1]?.[1] as Pipe, 1.0e5],
+    ["adiabatic, transition Re", { length: 400, diameter: 0.0266, roughness: 5e-5 }, 6.99999e5],
+    ["adiabatic, laminar (Re about 740)", { length: 2000, diameter: 0.0266, roughness: 5e-5 }, 6.999e5],
+    ["isothermal subsonic", pipes[2]?.[1] as Pipe, 5.5e5],
+    ["isothermal choked", pipes[3]?.[1] as Pipe, 1.0e5],
+  ];
+  for (const [name, pipe, pd] of states) {
+    it(`match central differences of the flow (${name})`, () => {
+      const geometry = pipeGeometry(pipe);
+      const p0 = upstream.pressure;
+      const t0 = upstream.temperature;
+      const base = evaluate(geometry, p0, t0, pd);
+      // Pressure steps: small against the pressure drop, but not below 1e-9 of the pressure, where
+      // the flow's own round-off would swamp the difference.
+      const step = Math.max(1e-4 * (p0 - pd), 1e-9 * p0);
+      const checks: [number, (h: number) => number, number][] = [
+        [base.dMassFlowdUpstreamPressure, (h) => evaluate(geometry, p0 + h, t0, pd).massFlow, step],
+        [base.dMassFlowdUpstreamTemperature, (h) => evaluate(geometry, p0, t0 + h, pd).massFlow, 1e-3],
+        [base.dMassFlowdDownstreamPressure, (h) => evaluate(geometry, p0, t0, pd + h).massFlow, step],
+      ];
+      for (const [analytic, at, h] of checks) {
+        const difference = (at(h) - at(-h)) / (2 * h);
+        // Central differences are good to about 1e-6 relative here; 1e-5 of the flow's scale.
+        const scale = Math.max(Math.abs(difference), (1e-6 * base.massFlow) / h);
+        expect(Math.abs(analytic - difference) / scale).toBeLessThan(1e-4);
+      }
+      if (base.choked) expect(base.dMassFlowdDownstreamPressure).toBe(0);
+    });
+  }
+
+  it("is the Hagen-Poiseuille conductance at zero flow (common practice, no source)", () => {
+    const geometry = pipeGeometry({ length: 40, diameter: 0.0525, roughness: 5e-5 });
+    const zero = evaluate(geometry, 5e5, 300, 5e5);
+    const density = 5e5 / (air.specificGasConstant * 300);
+    const viscosity = 1.458e-6 * 300 ** 1.5 / (300 + 110.4); // US Standard Atmosphere 1976 law
+    const area = (Math.PI / 4) * 0.0525 ** 2;
+    const expected = (density * 0.0525 ** 2 * area) / (32 * viscosity * 40);
+    expect(zero.massFlow).toBe(0);
+    expect(zero.dMassFlowdUpstreamPressure / expected).toBeCloseTo(1, 9);
+    expect(zero.dMassFlowdDownstreamPressure / -expected).toBeCloseTo(1, 9);
+    // and a tiny pressure difference gives that linear flow
+    const tiny = evaluate(geometry, 5e5 + 1e-4, 300, 5e5);
+    expect(tiny.massFlow / (1e-4 * expected)).toBeCloseTo(1, 4);
+  });
+});
