@@ -1,5 +1,6 @@
 import { defineConfig } from "vitest/config";
 
 export default defineConfig({
-  test: { include: ["test/**/*.slow.test.ts"], testTimeout: 600_000 },
+  test: {
+    reporters: ["default", "./test/count-reporter.ts"], include: ["test/**/*.slow.test.ts"], testTimeout: 600_000 },
 });
