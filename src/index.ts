@@ -78,7 +78,6 @@ export {
   pipeFlow,
   pipeOutlet,
 } from "./physics/pipe.js";
-export { DEFAULT_LIMITS } from "./results/build-results.js";
 export type {
   EdgeResult,
   NetworkBalance,

@@ -28,6 +28,16 @@ export const DEFAULT_SETTINGS = {
   maxIterations: 100,
 } as const;
 
+/**
+ * Default design limits, common practice (docs/model.md, "Design checks"): Mach 0.5 in headers
+ * and branches, rho v^2 200 000 Pa (NORSOK P-001 for flare lines). A document's own
+ * `settings.limits` replace these one by one.
+ */
+export const DEFAULT_LIMITS: Readonly<DesignLimits> = Object.freeze({
+  maxMach: 0.5,
+  maxMomentumFlux: 200_000,
+});
+
 /** Default absolute roughness [m]: carbon steel, not corroded (NORSOK P-001 section 5.2.2). */
 export const DEFAULT_ROUGHNESS = 0.05e-3;
 
@@ -365,7 +375,7 @@ function convertDocument(doc: NetworkDocument): ReadResult {
   if (gas) reader.molarMass = gas.molarMass;
 
   const limitsInput = doc.settings?.limits ?? {};
-  const limits: DesignLimits = {};
+  const limits: DesignLimits = { ...DEFAULT_LIMITS };
   if (limitsInput.maxMach !== undefined) limits.maxMach = limitsInput.maxMach;
   const maxVelocity = reader.positive(
     limitsInput.maxVelocity,

@@ -11,17 +11,18 @@ import { safeguardedNewton } from "./scalar-root.js";
  * Reynolds number up to which the laminar law 64/Re is used.
  *
  * Common practice, no single source: 2300 is the critical Reynolds number of pipe flow quoted in
- * most fluid-mechanics texts and handbooks (fluids uses 2040, after Avila et al., Science 2011,
- * for sustained turbulence); below it machnet treats flow as laminar.
+ * most fluid-mechanics texts and handbooks; below it machnet treats flow as laminar. (fluids 1.0.22
+ * uses 2040 +- 10 for the onset of sustained turbulence, citing K. Avila et al., "The onset of
+ * turbulence in pipe flow", Science 333, 2011, pp. 192-196.)
  */
 export const LAMINAR_LIMIT_REYNOLDS = 2300;
 
 /**
  * Reynolds number from which Colebrook-White is used.
  *
- * Common practice, no single source: Moody-type charts in handbooks draw the transition band as
- * 2000-2300 to 4000 and start the turbulent curves at 4000; the explicit friction correlations in
- * fluids, for example, are all stated for Re >= 4000.
+ * Common practice, no single source: Moody-type charts in handbooks draw the transition band up to
+ * about 4000 and start the turbulent curves there; of the explicit friction correlations whose
+ * range fluids 1.0.22 records (friction.py, `fmethods`), most give Re = 4000 as the lower limit.
  */
 export const TURBULENT_LIMIT_REYNOLDS = 4000;
 

@@ -187,12 +187,6 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
   };
 }
 
-/** Default design limits, common practice (docs/model.md, "Design checks"). */
-export const DEFAULT_LIMITS: Readonly<DesignLimits> = Object.freeze({
-  maxMach: 0.5,
-  maxMomentumFlux: 200_000,
-});
-
 /** Warnings for choked edges, junctions without flow and exceeded design limits. */
 export function designWarnings(
   results: StateResults,
