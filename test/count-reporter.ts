@@ -5,7 +5,10 @@
 import type { Reporter, TestModule } from "vitest/node";
 
 export default class CountReporter implements Reporter {
-  onTestRunEnd(testModules: ReadonlyArray<TestModule>, unhandledErrors: ReadonlyArray<unknown>): void {
+  onTestRunEnd(
+    testModules: ReadonlyArray<TestModule>,
+    unhandledErrors: ReadonlyArray<unknown>,
+  ): void {
     let passed = 0;
     let failed = 0;
     let skipped = 0;

@@ -19,7 +19,9 @@ export async function checkCommand(file: string, io: FullCliIo): Promise<number>
   if (!checked.ok) throw new CliError(issueLines(file, checked.issues));
   const { nodes, edges, notes } = checked.document;
   const plural = (count: number, word: string) => `${count} ${word}${count === 1 ? "" : "s"}`;
-  io.stdout(linesText([`${file}: ok (${plural(nodes.length, "node")}, ${plural(edges.length, "edge")})`]));
+  io.stdout(
+    linesText([`${file}: ok (${plural(nodes.length, "node")}, ${plural(edges.length, "edge")})`]),
+  );
   if (notes.length > 0) {
     io.stderr(linesText(notes.map((note) => `note: ${file}: ${note.path}: ${note.message}`)));
   }

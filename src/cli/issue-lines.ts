@@ -6,5 +6,7 @@ import { formatIssue, type InputIssue, sortIssues } from "../input/issues.js";
 
 /** One line per issue, sorted by path, each starting with the file name. */
 export function issueLines(file: string, issues: readonly InputIssue[]): string[] {
-  return sortIssues(issues).map((issue) => `${file}: ${formatIssue(issue).replace(/[\r\n]+/g, " ")}`);
+  return sortIssues(issues).map(
+    (issue) => `${file}: ${formatIssue(issue).replace(/[\r\n]+/g, " ")}`,
+  );
 }

@@ -19,8 +19,8 @@ import { type CliIo, completeIo, type FullCliIo } from "./cli-io.js";
 import { type SolveCommandOptions, solveCommand } from "./solve-command.js";
 import { STATE_MODES, type StateCommandOptions, stateCommand } from "./state-command.js";
 
-export type { CliIo } from "./cli-io.js";
 export { EXIT } from "./cli-error.js";
+export type { CliIo } from "./cli-io.js";
 
 /** The version in package.json, found by walking up from this file (src/cli or dist/src/cli). */
 function packageVersion(): string {
@@ -81,7 +81,9 @@ function buildProgram(io: FullCliIo, run: (code: number) => void): Command {
     .description("solve a network document and print the results")
     .argument("<file>", "network document (JSON, UTF-8)")
     .addOption(
-      new Option("--format <format>", "output format").choices(["table", "json", "csv"]).default("table"),
+      new Option("--format <format>", "output format")
+        .choices(["table", "json", "csv"])
+        .default("table"),
     )
     .addOption(unitsOption())
     .option("-o, --output <path>", "write the output to this file instead of standard output")
@@ -127,7 +129,9 @@ function buildProgram(io: FullCliIo, run: (code: number) => void): Command {
       "absolute ambient pressure that gauge values are read from",
       "101325 Pa",
     )
-    .addOption(new Option("--format <format>", "output format").choices(["table", "json"]).default("table"))
+    .addOption(
+      new Option("--format <format>", "output format").choices(["table", "json"]).default("table"),
+    )
     .addOption(unitsOption())
     .addHelpText("after", `\nModes: ${STATE_MODES}.`)
     .action((options: StateCommandOptions) => {
@@ -139,7 +143,8 @@ function buildProgram(io: FullCliIo, run: (code: number) => void): Command {
 
 /** Exit code for a commander error: help and version are successes, the rest invalid input. */
 function commanderExitCode(error: CommanderError): number {
-  if (error.code === "commander.helpDisplayed" || error.code === "commander.version") return EXIT.ok;
+  if (error.code === "commander.helpDisplayed" || error.code === "commander.version")
+    return EXIT.ok;
   if (error.code === "commander.help" && error.exitCode === 0) return EXIT.ok;
   return EXIT.invalidInput;
 }
@@ -148,7 +153,9 @@ function commanderExitCode(error: CommanderError): number {
 function reportInternalError(error: unknown, io: FullCliIo): void {
   let line: string;
   if (error instanceof InternalCheckError) {
-    line = /please report/.test(error.message) ? error.message : `${error.message}; please report it`;
+    line = /please report/.test(error.message)
+      ? error.message
+      : `${error.message}; please report it`;
   } else {
     const what = error instanceof Error ? `${error.name}: ${error.message}` : String(error);
     line = `internal error: ${what}; please report it with the input that caused it`;

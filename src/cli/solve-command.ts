@@ -91,7 +91,9 @@ export async function solveCommand(
     } catch (error) {
       const code = (error as { code?: unknown } | null)?.code;
       if (typeof code !== "string") throw error;
-      throw new CliError([`${options.output}: cannot write the output (${code}: ${(error as Error).message})`]);
+      throw new CliError([
+        `${options.output}: cannot write the output (${code}: ${(error as Error).message})`,
+      ]);
     }
   }
   if (stderr.length > 0) io.stderr(linesText(stderr));

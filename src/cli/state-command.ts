@@ -84,7 +84,8 @@ function chooseMode(options: StateCommandOptions): SectionStateInput["given"] {
     if (extra.length > 0) throw usageError(`${names(extra)} cannot be combined with ${mode}`);
   };
   const flow = (["velocity", "mach", "massFlux"] as const).filter(has);
-  if (flow.length > 1) throw usageError(`give only one of --velocity, --mach, --mass-flux (got ${names(flow)})`);
+  if (flow.length > 1)
+    throw usageError(`give only one of --velocity, --mach, --mass-flux (got ${names(flow)})`);
   const single = flow[0];
   if (single !== undefined) {
     const mode = FLAG_NAMES[single];
@@ -114,7 +115,9 @@ function chooseMode(options: StateCommandOptions): SectionStateInput["given"] {
  */
 export function stateCommand(options: StateCommandOptions, io: FullCliIo): number {
   if (!isGasPresetName(options.gas)) {
-    throw new CliError([`--gas: unknown gas "${options.gas}"; presets: ${GAS_PRESET_NAMES.join(", ")}`]);
+    throw new CliError([
+      `--gas: unknown gas "${options.gas}"; presets: ${GAS_PRESET_NAMES.join(", ")}`,
+    ]);
   }
   const gas = gasPreset(options.gas);
   const mode = chooseMode(options);
@@ -124,7 +127,9 @@ export function stateCommand(options: StateCommandOptions, io: FullCliIo): numbe
       `--ambient-pressure: the reference of gauge pressures must be absolute (got "${options.ambientPressure}"); write e.g. "1.01325 bar(a)"`,
     ]);
   }
-  const ambient = parseQuantity(options.ambientPressure, "pressure", { path: "--ambient-pressure" });
+  const ambient = parseQuantity(options.ambientPressure, "pressure", {
+    path: "--ambient-pressure",
+  });
   if (!ambient.ok) throw new CliError([formatIssue(ambient.issue)]);
   const ambientPressure = ambient.value;
   const quantity = (flag: QuantityFlag): number => {

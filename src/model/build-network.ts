@@ -2,7 +2,7 @@
  * Checked document -> network model: the graph (graphlib), topology checks, and the index arrays
  * the solver works on.
  */
-import { alg, Graph } from "@dagrejs/graphlib";
+import { Graph } from "@dagrejs/graphlib";
 import type { CheckedDocument } from "../input/document-types.js";
 import { type InputIssue, jsonPointer, sortIssues } from "../input/issues.js";
 
@@ -111,7 +111,7 @@ export function buildNetwork(document: CheckedDocument): BuildResult {
     }
   }
 
-  for (const component of alg.components(graph)) {
+  for (const component of connectedParts(graph)) {
     if (component.length === 1 && (graph.nodeEdges(component[0] as string) ?? []).length === 0) {
       continue; // already reported as isolated
     }
@@ -184,4 +184,32 @@ export function buildNetwork(document: CheckedDocument): BuildResult {
 function listIds(ids: readonly string[]): string {
   const shown = ids.slice(0, 12).join(", ");
   return ids.length > 12 ? `${shown} and ${ids.length - 12} more` : shown;
+}
+
+/**
+ * Connected parts of an undirected graph, each in the order found. Iterative (an explicit stack)
+ * because graphlib's own `alg.components` recurses once per node and overflows the call stack on
+ * long chains of tens of thousands of nodes.
+ */
+function connectedParts(graph: Graph): string[][] {
+  const seen = new Set<string>();
+  const parts: string[][] = [];
+  for (const start of graph.nodes()) {
+    if (seen.has(start)) continue;
+    const part: string[] = [];
+    const stack = [start];
+    seen.add(start);
+    while (stack.length > 0) {
+      const id = stack.pop() as string;
+      part.push(id);
+      for (const next of graph.neighbors(id) ?? []) {
+        if (!seen.has(next)) {
+          seen.add(next);
+          stack.push(next);
+        }
+      }
+    }
+    parts.push(part);
+  }
+  return parts;
 }

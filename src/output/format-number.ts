@@ -17,7 +17,7 @@ const LARGE = 1e7;
  * @param digits - significant digits (1 to 21)
  * @returns "0" for zero; fixed notation with `digits` significant digits for magnitudes in
  *   [1e-3, 1e7); otherwise exponent notation ("1.2346e+7"); "n/a" for NaN, "inf" / "-inf"
- * @example formatNumber(7.013254, 6) // "7.01325"; formatNumber(165004.7) // "165005"
+ * @example formatNumber(7.013254, 6) // "7.01325"; formatNumber(165004.7, 4) // "165000"
  */
 export function formatNumber(value: number, digits: number = DEFAULT_SIGNIFICANT_DIGITS): string {
   if (Number.isNaN(value)) return "n/a";
@@ -27,8 +27,11 @@ export function formatNumber(value: number, digits: number = DEFAULT_SIGNIFICANT
   const magnitude = Math.abs(value);
   if (magnitude >= SMALL && magnitude < LARGE) {
     const fixed = value.toPrecision(digits);
-    // toPrecision falls back to an exponent when the integer part has more digits than asked.
-    return fixed.includes("e") ? Math.round(value).toString() : fixed;
+    if (!fixed.includes("e")) return fixed;
+    // toPrecision writes an exponent when the integer part has more digits than asked for:
+    // round to that many significant digits and write the integer out instead.
+    const step = 10 ** (Math.floor(Math.log10(magnitude)) - digits + 1);
+    return (Math.round(value / step) * step).toFixed(0);
   }
   return value.toExponential(digits - 1);
 }

@@ -36,7 +36,11 @@ const PRESSURE_DIGITS = 6;
 /** Digits of other numbers. */
 const DIGITS = 5;
 
-function textColumn<Row>(label: string, name: string, value: (row: Row) => string): ResultColumn<Row> {
+function textColumn<Row>(
+  label: string,
+  name: string,
+  value: (row: Row) => string,
+): ResultColumn<Row> {
   return { label, name, unit: "", align: "left", digits: 0, value };
 }
 
@@ -105,8 +109,22 @@ export function edgeColumns(units: UnitSetName): ResultColumn<EdgeResult>[] {
     textColumn("from", "from", (edge) => edge.from),
     textColumn("to", "to", (edge) => edge.to),
     numberColumn("mass flow", "mass flow", units, "massFlow", (edge) => edge.massFlow),
-    numberColumn("p in", "inlet pressure", units, "pressure", (e) => e.inlet.pressure, PRESSURE_DIGITS),
-    numberColumn("p out", "outlet pressure", units, "pressure", (e) => e.outlet.pressure, PRESSURE_DIGITS),
+    numberColumn(
+      "p in",
+      "inlet pressure",
+      units,
+      "pressure",
+      (e) => e.inlet.pressure,
+      PRESSURE_DIGITS,
+    ),
+    numberColumn(
+      "p out",
+      "outlet pressure",
+      units,
+      "pressure",
+      (e) => e.outlet.pressure,
+      PRESSURE_DIGITS,
+    ),
     numberColumn("Δp", "pressure drop", units, "pressureDifference", (edge) => edge.pressureDrop),
     numberColumn("v in", "inlet velocity", units, "velocity", (edge) => edge.inlet.velocity),
     numberColumn("v out", "outlet velocity", units, "velocity", (edge) => edge.outlet.velocity),

@@ -71,6 +71,7 @@ export function resultCsv(result: NetworkResult, options: CsvOptions = {}): stri
       ? csvRows(nodeColumns(result, units), result.nodes)
       : csvRows(edgeColumns(units), result.edges);
   const reason = notASolutionReason(result);
-  if (reason !== undefined) lines.unshift(`# ${NOT_A_SOLUTION}: ${reason.replace(/[\r\n]+/g, " ")}`);
+  if (reason !== undefined)
+    lines.unshift(`# ${NOT_A_SOLUTION}: ${reason.replace(/[\r\n]+/g, " ")}`);
   return `${lines.join("\n")}\n`;
 }

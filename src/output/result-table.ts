@@ -80,7 +80,11 @@ export function resultWarnings(result: NetworkResult): string[] {
     .map((warning) => `warning: ${warning.message}`);
 }
 
-function textTable<Row>(title: string, columns: ResultColumn<Row>[], rows: readonly Row[]): TextTable {
+function textTable<Row>(
+  title: string,
+  columns: ResultColumn<Row>[],
+  rows: readonly Row[],
+): TextTable {
   return {
     title,
     columns: columns.map(({ label, unit, align }) => ({ label, unit, align })),

@@ -27,9 +27,19 @@ export type SectionStateInput =
   /** Static pressure and temperature and the mass flux G = rho v. */
   | { given: "massFlux"; pressure: number; temperature: number; massFlux: number }
   /** Stagnation and static temperature of adiabatic flow; static pressure optional. */
-  | { given: "stagnationTemperature"; stagnationTemperature: number; temperature: number; pressure?: number }
+  | {
+      given: "stagnationTemperature";
+      stagnationTemperature: number;
+      temperature: number;
+      pressure?: number;
+    }
   /** Stagnation temperature and pressure of isentropic flow and the static pressure. */
-  | { given: "stagnationState"; stagnationTemperature: number; stagnationPressure: number; pressure: number };
+  | {
+      given: "stagnationState";
+      stagnationTemperature: number;
+      stagnationPressure: number;
+      pressure: number;
+    };
 
 /** The state at the section. null: not defined by what was given (no static pressure). */
 export interface SectionState {
@@ -54,7 +64,11 @@ export interface SectionState {
   stagnationPressure: number | null;
 }
 
-function valueIssue(path: string, value: number, message: string): { ok: false; issue: InputIssue } {
+function valueIssue(
+  path: string,
+  value: number,
+  message: string,
+): { ok: false; issue: InputIssue } {
   return { ok: false, issue: { code: "value", path, value, message } };
 }
 
@@ -83,7 +97,6 @@ export function sectionState(
   input: SectionStateInput,
 ): { ok: true; state: SectionState } | { ok: false; issue: InputIssue } {
   const gamma = gas.heatCapacityRatio;
-  const R = gas.specificGasConstant;
   const given = input.given;
   if (given === "stagnationTemperature") {
     const { stagnationTemperature, temperature } = input;
@@ -152,7 +165,11 @@ export function sectionState(
   let mach: number;
   if (given === "velocity") {
     if (!(input.velocity >= 0)) {
-      return valueIssue("--velocity", input.velocity, `must be 0 or more (got ${input.velocity} m/s)`);
+      return valueIssue(
+        "--velocity",
+        input.velocity,
+        `must be 0 or more (got ${input.velocity} m/s)`,
+      );
     }
     velocity = input.velocity;
     mach = velocity / a;
@@ -164,7 +181,11 @@ export function sectionState(
     velocity = mach * a;
   } else {
     if (!(input.massFlux >= 0)) {
-      return valueIssue("--mass-flux", input.massFlux, `must be 0 or more (got ${input.massFlux} kg/(m2 s))`);
+      return valueIssue(
+        "--mass-flux",
+        input.massFlux,
+        `must be 0 or more (got ${input.massFlux} kg/(m2 s))`,
+      );
     }
     velocity = input.massFlux / density;
     mach = velocity / a;
@@ -231,10 +252,21 @@ export function sectionStateTable(
   const given = GIVEN[state.given];
   const rows: string[][] = [];
   const mark = (key: string) => (given.includes(key) ? "given" : "");
-  const add = (label: string, key: string, value: number | null, kind: Parameters<typeof displayUnit>[1], digits = 5) => {
+  const add = (
+    label: string,
+    key: string,
+    value: number | null,
+    kind: Parameters<typeof displayUnit>[1],
+    digits = 5,
+  ) => {
     if (value === null) return;
     const unit = displayUnit(units, kind);
-    rows.push([label, formatNumber(unit.fromSI(value), digits), kind === "dimensionless" ? "" : unit.label, mark(key)]);
+    rows.push([
+      label,
+      formatNumber(unit.fromSI(value), digits),
+      kind === "dimensionless" ? "" : unit.label,
+      mark(key),
+    ]);
   };
   const addGauge = (label: string, key: string, value: number | null) => {
     if (value === null) return;
@@ -249,7 +281,12 @@ export function sectionStateTable(
   add("Mach number", "mach", state.mach, "dimensionless");
   add("velocity", "velocity", state.velocity, "velocity");
   add("mass flux", "massFlux", state.massFlux, "massFlux");
-  add("stagnation temperature", "stagnationTemperature", state.stagnationTemperature, "temperature");
+  add(
+    "stagnation temperature",
+    "stagnationTemperature",
+    state.stagnationTemperature,
+    "temperature",
+  );
   add("stagnation pressure", "stagnationPressure", state.stagnationPressure, "pressure", 6);
   addGauge("stagnation pressure", "stagnationPressure", state.stagnationPressure);
   return {

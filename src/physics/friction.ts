@@ -186,8 +186,9 @@ function transitionLogFriction(
  *   a smooth friction law. Interpolating ln fD against ln Re keeps fD positive; the cubic dips up
  *   to about 4 % below 64/2300 just above Re = 2300 and overshoots fCW by about 0.1 % just below
  *   4000, since both end curves fall with Re while the blend rises from 0.0278 to fCW(4000).
- *   The limits 2300 and
- *   4000 are common practice (see {@link LAMINAR_LIMIT_REYNOLDS}, {@link TURBULENT_LIMIT_REYNOLDS}).
+ *   The limits 2300 and 4000 are common practice (see {@link LAMINAR_LIMIT_REYNOLDS},
+ *   {@link TURBULENT_LIMIT_REYNOLDS}). Below Re of about 3.6e-307, where 64/Re overflows, the
+ *   largest double is returned.
  *   Sources: laminar, White, Fluid Mechanics, 7th ed., 2011, ch. 6; turbulent, Colebrook, J. ICE
  *   11(4), 1939 (see {@link colebrookWhite}).
  * @example darcyFrictionFactor(3000, 0) // 0.03129108 (between 64/2300 = 0.0278 and
@@ -256,4 +257,48 @@ export function darcyFrictionFactorLogSlope(reynolds: number, relativeRoughness:
     return colebrookLogSlope(reynolds, relativeRoughness, x);
   }
   return transitionLogFriction(reynolds, relativeRoughness, true);
+}
+
+/** Output of {@link darcyFrictionWithSlope}: reused by the caller, so no allocation per call. */
+export interface FrictionWithSlope {
+  /** Darcy friction factor fD [-]. */
+  factor: number;
+  /** d ln fD / d ln Re [-]. */
+  logSlope: number;
+}
+
+/**
+ * {@link darcyFrictionFactor} and {@link darcyFrictionFactorLogSlope} from one solve of
+ * Colebrook-White, written into `out`: the form the network solver's hot path uses.
+ *
+ * @param reynolds - Re > 0 [-]
+ * @param relativeRoughness - eps/D in [0, 1) [-]
+ * @param out - receives fD and d ln fD / d ln Re
+ * @returns out
+ * @remarks Same laws and blend as {@link darcyFrictionFactor}.
+ * @example darcyFrictionWithSlope(1e5, 1e-4, { factor: 0, logSlope: 0 }).factor // = colebrookWhite(1e5, 1e-4)
+ */
+export function darcyFrictionWithSlope(
+  reynolds: number,
+  relativeRoughness: number,
+  out: FrictionWithSlope,
+): FrictionWithSlope {
+  if (!(reynolds > 0 && reynolds < Number.POSITIVE_INFINITY)) {
+    throw new RangeError(
+      `Reynolds number must be a finite number > 0 (got ${reynolds}); at zero flow use darcyFrictionProduct`,
+    );
+  }
+  checkRoughness(relativeRoughness);
+  if (reynolds <= LAMINAR_LIMIT_REYNOLDS) {
+    out.factor = 64 / reynolds;
+    out.logSlope = -1;
+  } else if (reynolds >= TURBULENT_LIMIT_REYNOLDS) {
+    const x = colebrookInverseRoot(reynolds, relativeRoughness);
+    out.factor = 1 / (x * x);
+    out.logSlope = colebrookLogSlope(reynolds, relativeRoughness, x);
+  } else {
+    out.factor = Math.exp(transitionLogFriction(reynolds, relativeRoughness, false));
+    out.logSlope = transitionLogFriction(reynolds, relativeRoughness, true);
+  }
+  return out;
 }

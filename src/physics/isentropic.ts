@@ -328,6 +328,6 @@ export function machFromMassFluxParameter(
   const logAreaRatio =
     parameter > 0.5 * maximum
       ? -Math.log1p((parameter - maximum) / maximum)
-      : Math.log(maximum / parameter);
+      : Math.log(maximum) - Math.log(parameter); // no overflow for a subnormal parameter
   return machFromLogAreaRatio(logAreaRatio, gamma, branch);
 }

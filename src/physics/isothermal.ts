@@ -207,8 +207,7 @@ export function machFromIsothermalFrictionParameter(parameter: number, gamma: nu
  *   {@link isothermalChokedOutletPressure}(p1, fD L/D): below it the expression falls again and
  *   is not physical (the pipe is choked and carries the flow at p2*). This function does not
  *   check that (it would cost a root solve); callers do. Source: Shapiro, Vol. I, 1953, ch. 6;
- *   the same form is in fluids.compressible.isothermal_gas (C. Bell, fluids, documentation of
- *   that function, which cites D. C. Rennels and H. M. Hudson, Pipe Flow, Wiley, 2012).
+ *   checked against fluids.compressible.isothermal_gas in the tests.
  * @example isothermalMassFlux(1e6, 9e5, 287.05, 308.29, 3.7) // 740.95 [kg/(m2 s)]; times the area
  *   of a 0.5 m pipe, 145.48 kg/s (checked in test/physics/isothermal.test.ts)
  */

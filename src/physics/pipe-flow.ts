@@ -21,7 +21,7 @@
  */
 
 import { fannoParameter, machFromFannoParameter } from "./fanno.js";
-import { darcyFrictionFactor, darcyFrictionFactorLogSlope } from "./friction.js";
+import { darcyFrictionWithSlope, type FrictionWithSlope } from "./friction.js";
 
 /** Geometry and friction of one pipe, in SI. */
 export interface PipeGeometry {
@@ -80,17 +80,30 @@ export class PipeFlowEvaluation {
   /** Warm start for the next call on the same pipe: the last inlet Mach numbers found. */
   lastInletMach = Number.NaN;
   lastCapacityInletMach = Number.NaN;
+  /** False when the capacity was not needed and not computed (then `capacity` is NaN). */
+  capacityKnown = false;
+  /** Scratch of the friction relation (kept here so the hot path allocates nothing). */
+  readonly friction: FrictionScratch = {
+    value: 0,
+    slope: 0,
+    factor: 0,
+    colebrook: { factor: 0, logSlope: 0 },
+  };
 }
 
-/** Relative step of the central difference used for d(mu)/dT. */
-const DIFFERENCE_STEP = 1e-6;
+/** Scratch of {@link frictionParameter}. */
+interface FrictionScratch {
+  /** X = fD L/D + K [-] */
+  value: number;
+  /** dX/dRe [-] */
+  slope: number;
+  /** fD [-] */
+  factor: number;
+  colebrook: FrictionWithSlope;
+}
 
 /** Friction parameter fD L/D + K at a Reynolds number, and its derivative with respect to Re. */
-function frictionParameter(
-  pipe: PipeGeometry,
-  reynolds: number,
-  out: { value: number; slope: number; factor: number },
-) {
+function frictionParameter(pipe: PipeGeometry, reynolds: number, out: FrictionScratch): void {
   const lengthRatio = pipe.length / pipe.diameter;
   if (!Number.isNaN(pipe.fixedFrictionFactor)) {
     // A fixed factor holds while it exceeds the laminar value; below that (vanishing flow) the
@@ -107,12 +120,10 @@ function frictionParameter(
     }
     return;
   }
-  const relativeRoughness = pipe.roughness / pipe.diameter;
-  const factor = darcyFrictionFactor(reynolds, relativeRoughness);
-  const slope = (factor * darcyFrictionFactorLogSlope(reynolds, relativeRoughness)) / reynolds;
-  out.factor = factor;
-  out.value = factor * lengthRatio + pipe.minorLoss;
-  out.slope = slope * lengthRatio;
+  const colebrook = darcyFrictionWithSlope(reynolds, pipe.roughness / pipe.diameter, out.colebrook);
+  out.factor = colebrook.factor;
+  out.value = colebrook.factor * lengthRatio + pipe.minorLoss;
+  out.slope = ((colebrook.factor * colebrook.logSlope) / reynolds) * lengthRatio;
 }
 
 // --- Closed forms of a calorically perfect gas and their logarithmic derivatives -------------
@@ -152,16 +163,13 @@ function fannoSlope(mach: number, gamma: number): number {
   return (-4 * (1 - mach * mach)) / (gamma * mach ** 3 * (2 + (gamma - 1) * mach * mach));
 }
 
-/** Scratch for friction results, reused (module-level constants only: no state survives a call). */
-interface FrictionScratch {
-  value: number;
-  slope: number;
-  factor: number;
-}
-
 /**
  * Evaluate a pipe carrying gas from a plenum at (p0, T0) into a plenum at pd (pd <= p0).
  * `out` is filled in and returned; its lastInletMach fields warm-start the next call.
+ *
+ * @param needCapacity - compute the capacity even when the pipe is clearly not choked (results
+ *   need it; Newton iterations do not, and skip that solve for speed). When false and the pipe
+ *   is not near choking, `out.capacity` is NaN and `out.capacityKnown` false.
  */
 export function evaluatePipeFlow(
   pipe: PipeGeometry,
@@ -170,19 +178,42 @@ export function evaluatePipeFlow(
   upstreamTemperature: number,
   downstreamPressure: number,
   out: PipeFlowEvaluation,
+  needCapacity = true,
 ): PipeFlowEvaluation {
   if (pipe.model === "isothermal") {
-    evaluateIsothermal(pipe, gas, upstreamPressure, upstreamTemperature, downstreamPressure, out);
+    evaluateIsothermal(
+      pipe,
+      gas,
+      upstreamPressure,
+      upstreamTemperature,
+      downstreamPressure,
+      out,
+      needCapacity,
+    );
   } else {
-    evaluateAdiabatic(pipe, gas, upstreamPressure, upstreamTemperature, downstreamPressure, out);
+    evaluateAdiabatic(
+      pipe,
+      gas,
+      upstreamPressure,
+      upstreamTemperature,
+      downstreamPressure,
+      out,
+      needCapacity,
+    );
   }
   return out;
 }
 
+/** Relative temperature step of the central difference for d ln mu / dT. */
+const VISCOSITY_STEP = 1e-6;
+
 function viscositySlope(gas: PipeGas, temperature: number, viscosity: number): number {
-  const h = DIFFERENCE_STEP * temperature;
+  const h = VISCOSITY_STEP * temperature;
   return (gas.viscosity(temperature + h) - gas.viscosity(temperature - h)) / (2 * h) / viscosity;
 }
+
+/** An exit Mach number above this (adiabatic) counts as "near choking": the capacity is solved. */
+const NEAR_CHOKE_MACH = 0.999;
 
 // ---------------------------------------------------------------------------------------------
 // Adiabatic: isentropic entrance + Fanno.
@@ -198,6 +229,7 @@ function evaluateAdiabatic(
   t0: number,
   pd: number,
   out: PipeFlowEvaluation,
+  needCapacity: boolean,
 ): void {
   const gamma = gas.heatCapacityRatio;
   const r = gas.specificGasConstant;
@@ -207,34 +239,68 @@ function evaluateAdiabatic(
   const sqrtRT = Math.sqrt(r * t0);
   const fluxScale = p0 / sqrtRT; // G = Phi * fluxScale
   const reynoldsScale = (fluxScale * pipe.diameter) / mu; // Re = Phi * reynoldsScale
-  const friction: FrictionScratch = { value: 0, slope: 0, factor: 0 };
+  const friction = out.friction;
 
   out.arrivalTemperature = t0;
   out.dArrivalTemperaturedUpstreamPressure = 0;
   out.dArrivalTemperaturedUpstreamTemperature = 1;
   out.dArrivalTemperaturedDownstreamPressure = 0;
+  out.capacity = Number.NaN;
+  out.capacityKnown = false;
 
-  // Capacity: solve h(M) = F(M) - X(M) = 0 on (0, 1] by safeguarded Newton.
-  const capacityMach = adiabaticCapacityMach(
-    pipe,
-    gamma,
-    reynoldsScale,
-    out.lastCapacityInletMach,
-    friction,
-  );
-  out.lastCapacityInletMach = capacityMach;
-  const phiCapacity = massFluxParameterOf(capacityMach, gamma);
-  out.capacity = phiCapacity * fluxScale * area;
-  const logChokedExitRatio =
-    logIsentropicPressure(capacityMach, gamma) - logFannoPressure(capacityMach, gamma);
-
+  const targetLogRatio = pd > 0 ? Math.log(pd / p0) : Number.NEGATIVE_INFINITY;
+  let capacityMach = Number.NaN;
+  let logChokedExitRatio = Number.NaN;
+  const solveCapacity = () => {
+    capacityMach = adiabaticCapacityMach(
+      pipe,
+      gamma,
+      reynoldsScale,
+      out.lastCapacityInletMach,
+      friction,
+    );
+    out.lastCapacityInletMach = capacityMach;
+    out.capacity = massFluxParameterOf(capacityMach, gamma) * fluxScale * area;
+    out.capacityKnown = true;
+    logChokedExitRatio =
+      logIsentropicPressure(capacityMach, gamma) - logFannoPressure(capacityMach, gamma);
+  };
+  // Known choked last time, or no flow: the capacity decides, solve it first.
+  if (needCapacity || out.choked || pd >= p0) solveCapacity();
   if (pd >= p0) {
     setZeroFlowAdiabatic(pipe, gas, p0, t0, mu, area, out);
     return;
   }
-  const targetLogRatio = pd > 0 ? Math.log(pd / p0) : Number.NEGATIVE_INFINITY;
-  if (targetLogRatio <= logChokedExitRatio) {
+
+  // Subsonic exit: g(M1) = ln(p_exit/p0) - ln(pd/p0) = 0 on (0, M1c). Without the capacity the
+  // bracket is (0, 1) and the pipe's capacity shows up as a root that drifts to the sonic exit.
+  let mach = Number.NaN;
+  let exitMach = 1;
+  if (
+    targetLogRatio > Number.NEGATIVE_INFINITY &&
+    !(out.capacityKnown && targetLogRatio <= logChokedExitRatio)
+  ) {
+    mach = adiabaticInletMach(
+      pipe,
+      gamma,
+      reynoldsScale,
+      targetLogRatio,
+      out.capacityKnown ? capacityMach : 1,
+      out,
+    );
+    exitMach = out.outletMach;
+  }
+  if (!out.capacityKnown && !(exitMach < NEAR_CHOKE_MACH)) {
+    solveCapacity();
+    if (targetLogRatio > logChokedExitRatio) {
+      mach = adiabaticInletMach(pipe, gamma, reynoldsScale, targetLogRatio, capacityMach, out);
+      exitMach = out.outletMach;
+    }
+  }
+
+  if (out.capacityKnown && targetLogRatio <= logChokedExitRatio) {
     // Choked: flow set by the upstream state alone.
+    const phiCapacity = massFluxParameterOf(capacityMach, gamma);
     frictionParameter(pipe, phiCapacity * reynoldsScale, friction);
     out.choked = true;
     out.massFlow = out.capacity;
@@ -252,66 +318,17 @@ function evaluateAdiabatic(
     // d ln(reynoldsScale) = d ln p0 - (1/(2 T0) + mu'/mu) dT0
     const dLogScaledP0 = 1 / p0;
     const dLogScaledT0 = -0.5 / t0 - muSlope;
-    const dLogFluxdP0 = 1 / p0;
-    const dLogFluxdT0 = -0.5 / t0;
     out.dMassFlowdUpstreamPressure =
-      out.massFlow * (dLogFluxdP0 + phiLogSlope * machPerLogScale * dLogScaledP0);
+      out.massFlow * (1 / p0 + phiLogSlope * machPerLogScale * dLogScaledP0);
     out.dMassFlowdUpstreamTemperature =
-      out.massFlow * (dLogFluxdT0 + phiLogSlope * machPerLogScale * dLogScaledT0);
+      out.massFlow * (-0.5 / t0 + phiLogSlope * machPerLogScale * dLogScaledT0);
     out.dMassFlowdDownstreamPressure = 0;
     return;
   }
 
-  // Subsonic exit: g(M1) = ln(p_exit/p0) - ln(pd/p0) = 0 on (0, M1c).
-  let lo = 0;
-  let hi = capacityMach;
-  let mach = out.lastInletMach;
-  if (!(mach > 0 && mach < hi)) {
-    // Low-Mach estimate: 1 - pd/p0 ~ (gamma/2) M^2 (1 + X) with X at a turbulent guess.
-    frictionParameter(pipe, Math.max(0.5 * hi * reynoldsScale, 1), friction);
-    mach = Math.min(0.9 * hi, Math.sqrt((-2 * targetLogRatio) / (gamma * (1 + friction.value))));
-  }
-  let logRatio = 0;
-  let slope = 0;
-  let exitMach = 0;
-  for (let iteration = 0; iteration < 100; iteration++) {
-    const reynolds = massFluxParameterOf(mach, gamma) * reynoldsScale;
-    frictionParameter(pipe, reynolds, friction);
-    const remaining = fannoParameter(mach, gamma) - friction.value;
-    if (!(remaining > 0)) {
-      // Beyond this pipe's capacity at this M1: the root lies below.
-      hi = mach;
-      mach = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
-      continue;
-    }
-    exitMach = machFromFannoParameter(remaining, gamma, "subsonic");
-    logRatio =
-      logIsentropicPressure(mach, gamma) -
-      logFannoPressure(mach, gamma) +
-      logFannoPressure(exitMach, gamma);
-    const g = logRatio - targetLogRatio;
-    if (Math.abs(g) <= 1e-15) break;
-    if (g > 0) lo = mach;
-    else hi = mach;
-    // dg/dM1 with the friction parameter following Re(M1).
-    const dRemaining =
-      fannoSlope(mach, gamma) - friction.slope * reynolds * logMassFluxSlope(mach, gamma);
-    const dExitMach = dRemaining / fannoSlope(exitMach, gamma);
-    slope =
-      logIsentropicPressureSlope(mach, gamma) -
-      logFannoPressureSlope(mach, gamma) +
-      logFannoPressureSlope(exitMach, gamma) * dExitMach;
-    let next = mach - g / slope;
-    if (!(next > lo && next < hi)) next = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
-    const change = Math.abs(next - mach);
-    mach = next;
-    if (change <= 1e-15 * mach) break;
-  }
-  // Final state at the converged M1 (recomputed so every output belongs to one M1).
+  // Subsonic: final state at the converged M1 (adiabaticInletMach left M2 and X in out).
   const reynolds = massFluxParameterOf(mach, gamma) * reynoldsScale;
   frictionParameter(pipe, reynolds, friction);
-  const remaining = Math.max(fannoParameter(mach, gamma) - friction.value, 0);
-  exitMach = machFromFannoParameter(remaining, gamma, "subsonic");
   const phi = massFluxParameterOf(mach, gamma);
   out.lastInletMach = mach;
   out.choked = false;
@@ -343,6 +360,125 @@ function evaluateAdiabatic(
   out.dMassFlowdDownstreamPressure = massFlow * (-(phiLogSlope * gPd) / gMach);
 }
 
+/**
+ * Inlet Mach number M1 in (0, upper) at which the exit static pressure is pd, by safeguarded
+ * Newton on g(M1) = ln(p_exit/p0) - ln(pd/p0). Leaves the exit Mach number in out.outletMach
+ * (1 when the root is not inside the bracket: the pipe is at or beyond its capacity).
+ */
+function adiabaticInletMach(
+  pipe: PipeGeometry,
+  gamma: number,
+  reynoldsScale: number,
+  targetLogRatio: number,
+  upper: number,
+  out: PipeFlowEvaluation,
+): number {
+  const friction = out.friction;
+  let lo = 0;
+  let hi = upper;
+  let mach = out.lastInletMach;
+  if (!(mach > 0 && mach < hi)) {
+    // Low-Mach estimate: 1 - pd/p0 ~ (gamma/2) M^2 (1 + X) with X at a turbulent guess.
+    frictionParameter(pipe, Math.max(0.5 * hi * reynoldsScale, 1), friction);
+    mach = Math.min(0.9 * hi, Math.sqrt((-2 * targetLogRatio) / (gamma * (1 + friction.value))));
+  }
+  let exitMach = 1;
+  for (let iteration = 0; iteration < 100; iteration++) {
+    const reynolds = massFluxParameterOf(mach, gamma) * reynoldsScale;
+    frictionParameter(pipe, reynolds, friction);
+    const remaining = fannoParameter(mach, gamma) - friction.value;
+    if (!(remaining > 0)) {
+      // Beyond this pipe's capacity at this M1: the root lies below.
+      hi = mach;
+      mach = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
+      exitMach = 1;
+      if (hi - lo <= 1e-15 * hi) break;
+      continue;
+    }
+    const offset = fannoExitOffset(mach, friction.value, gamma, remaining);
+    exitMach = mach + offset;
+    const logRatio = logPressureRatioOfOffset(mach, offset, gamma);
+    // Newton in ln M1 on phi = ln(-ln r) - ln(-ln(pd/p0)): 1 - r grows as a power of M1 (M1^2 in
+    // fully rough flow, M1^1.75 in smooth, M1 in laminar), so phi is nearly linear in ln M1 and
+    // Newton needs one or two steps from a warm start.
+    const phi = Math.log(logRatio / targetLogRatio);
+    // Residual 1e-13 in ln(-ln r) and M1 to 1e-13: below anything a result shows and reachable
+    // in floating point (a tighter test can stall on rounding and waste iterations).
+    if (Math.abs(phi) <= 1e-13) break;
+    if (phi < 0) lo = mach;
+    else hi = mach;
+    // d logRatio / dM1 with the friction parameter following Re(M1).
+    const dRemaining =
+      fannoSlope(mach, gamma) - friction.slope * reynolds * logMassFluxSlope(mach, gamma);
+    const dExitMach = dRemaining / fannoSlope(exitMach, gamma);
+    const slope =
+      logIsentropicPressureSlope(mach, gamma) -
+      logFannoPressureSlope(mach, gamma) +
+      logFannoPressureSlope(exitMach, gamma) * dExitMach;
+    const phiSlope = (mach * slope) / logRatio; // d phi / d ln M1 > 0
+    let next = mach * Math.exp(-phi / phiSlope);
+    if (!(next > lo && next < hi)) next = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
+    const change = Math.abs(next - mach);
+    mach = next;
+    if (change <= 1e-13 * mach) break;
+  }
+  out.outletMach = exitMach;
+  return mach;
+}
+
+/**
+ * delta = M2 - M1 of Fanno flow over a friction parameter X, to full relative precision even
+ * when delta is tiny (a small pressure drop), where M2 from F(M2) = F(M1) - X would lose it to
+ * the subtraction. Solves DF(delta) = F(M1) - F(M1 + delta) = X by Newton, with DF written in a
+ * form free of cancellation:
+ *   DF = d (2a + d) / (gamma a^2 b^2) - ((gamma+1)/gamma) log1p(d/a)
+ *        + ((gamma+1)/(2 gamma)) log1p((gamma-1) d (2a + d) / (2 + (gamma-1) a^2)),  b = a + d.
+ */
+function fannoExitOffset(
+  inletMach: number,
+  frictionValue: number,
+  gamma: number,
+  remaining: number,
+): number {
+  const a = inletMach;
+  const c = (gamma + 1) / (2 * gamma);
+  let delta = Math.max(machFromFannoParameter(remaining, gamma, "subsonic") - a, 0);
+  if (delta === 0) delta = -frictionValue / fannoSlope(a, gamma);
+  let lo = 0;
+  let hi = 1 - a;
+  for (let iteration = 0; iteration < 30; iteration++) {
+    const b = a + delta;
+    const sum = delta * (2 * a + delta);
+    const difference =
+      sum / (gamma * a * a * b * b) -
+      2 * c * Math.log1p(delta / a) +
+      c * Math.log1p(((gamma - 1) * sum) / (2 + (gamma - 1) * a * a));
+    const residual = difference - frictionValue;
+    if (Math.abs(residual) <= 1e-15 * frictionValue) break;
+    if (residual > 0) hi = delta;
+    else lo = delta;
+    let next = delta - residual / -fannoSlope(b, gamma);
+    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    const change = Math.abs(next - delta);
+    delta = next;
+    if (change <= 1e-15 * delta) break;
+  }
+  return delta;
+}
+
+/**
+ * ln(p_exit / p0) of an adiabatic pipe from its inlet Mach number a and the Fanno offset
+ * d = M2 - M1, without cancellation:
+ *   ln pi(a) - log1p(d/a) - 0.5 log1p((gamma-1) d (2a + d) / (2 + (gamma-1) a^2)).
+ */
+function logPressureRatioOfOffset(a: number, delta: number, gamma: number): number {
+  return (
+    logIsentropicPressure(a, gamma) -
+    Math.log1p(delta / a) -
+    0.5 * Math.log1p(((gamma - 1) * delta * (2 * a + delta)) / (2 + (gamma - 1) * a * a))
+  );
+}
+
 /** Inlet Mach number at which the pipe chokes: F(M) = X(Re(M)). */
 function adiabaticCapacityMach(
   pipe: PipeGeometry,
@@ -362,17 +498,19 @@ function adiabaticCapacityMach(
     const reynolds = massFluxParameterOf(mach, gamma) * reynoldsScale;
     frictionParameter(pipe, reynolds, friction);
     if (friction.value <= 0) return 1;
-    const h = fannoParameter(mach, gamma) - friction.value;
-    if (Math.abs(h) <= 1e-15 * friction.value) break;
+    // Newton in ln M on ln F(M) - ln X(M), nearly linear (F ~ 1/(gamma M^2) at low Mach).
+    const fanno = fannoParameter(mach, gamma);
+    const h = Math.log(fanno / friction.value);
+    if (Math.abs(h) <= 1e-14) break;
     if (h > 0) lo = mach;
     else hi = mach;
-    const slope =
-      fannoSlope(mach, gamma) - friction.slope * reynolds * logMassFluxSlope(mach, gamma);
-    let next = slope < 0 ? mach - h / slope : Number.NaN;
+    const frictionMachSlope = friction.slope * reynolds * logMassFluxSlope(mach, gamma); // dX/dM
+    const slope = mach * (fannoSlope(mach, gamma) / fanno - frictionMachSlope / friction.value);
+    let next = slope < 0 ? mach * Math.exp(-h / slope) : Number.NaN;
     if (!(next > lo && next < hi)) next = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
     const change = Math.abs(next - mach);
     mach = next;
-    if (change <= 1e-15 * mach) break;
+    if (change <= 1e-13 * mach) break;
   }
   return mach;
 }
@@ -414,6 +552,7 @@ function evaluateIsothermal(
   t: number,
   pd: number,
   out: PipeFlowEvaluation,
+  needCapacity: boolean,
 ): void {
   const gamma = gas.heatCapacityRatio;
   const r = gas.specificGasConstant;
@@ -423,36 +562,33 @@ function evaluateIsothermal(
   const rt = r * t;
   const sqrtRT = Math.sqrt(rt);
   const reynoldsPerFlux = pipe.diameter / mu;
-  const friction: FrictionScratch = { value: 0, slope: 0, factor: 0 };
+  const friction = out.friction;
   const half = 0.5 * (gamma - 1);
-
-  // Capacity: Newton on r with X following Re(G*(r)).
-  let ratio = out.lastCapacityInletMach; // stores r* for this model
-  if (!(ratio > 0 && ratio < 1)) ratio = 0.5;
-  let lo = 0;
-  let hi = 1;
-  for (let iteration = 0; iteration < 100; iteration++) {
-    const flux = (p1 * ratio) / sqrtRT;
-    const reynolds = flux * reynoldsPerFlux;
-    frictionParameter(pipe, reynolds, friction);
-    const value = ratio * ratio * (friction.value + 1 - 2 * Math.log(ratio)) - 1;
-    if (Math.abs(value) <= 1e-15) break;
-    if (value > 0) hi = ratio;
-    else lo = ratio;
-    // d/dr with X(Re(r)): 2r(X - 2 ln r) + r^2 X_Re Re / r
-    const slope =
-      2 * ratio * (friction.value - 2 * Math.log(ratio)) + ratio * friction.slope * reynolds;
-    let next = ratio - value / slope;
-    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-    const change = Math.abs(next - ratio);
-    ratio = next;
-    if (change <= 1e-15) break;
-  }
-  out.lastCapacityInletMach = ratio;
-  const chokedFlux = (p1 * ratio) / sqrtRT;
-  out.capacity = chokedFlux * area;
-  const chokedExitPressure = p1 * ratio;
   const limitingMach = 1 / Math.sqrt(gamma);
+  out.capacity = Number.NaN;
+  out.capacityKnown = false;
+
+  // Capacity: Newton on r = p2* / p1 with X following Re(G*(r)).
+  let ratio = Number.NaN;
+  let chokedFlux = Number.NaN;
+  let chokedExitPressure = Number.NaN;
+  const solveCapacity = () => {
+    ratio = isothermalCapacityRatio(
+      pipe,
+      p1,
+      sqrtRT,
+      reynoldsPerFlux,
+      out.lastCapacityInletMach,
+      friction,
+    );
+    out.lastCapacityInletMach = ratio; // stores r* for this model
+    chokedFlux = (p1 * ratio) / sqrtRT;
+    out.capacity = chokedFlux * area;
+    out.capacityKnown = true;
+    chokedExitPressure = p1 * ratio;
+  };
+  // Known choked last time, or no flow or no back-pressure: the capacity decides, solve it first.
+  if (needCapacity || out.choked || pd >= p1 || !(pd > 0)) solveCapacity();
 
   if (pd >= p1) {
     const conductance = (pipe.diameter * pipe.diameter * area * p1) / (32 * mu * pipe.length * rt);
@@ -474,7 +610,38 @@ function evaluateIsothermal(
     return;
   }
 
-  if (pd <= chokedExitPressure) {
+  // Subsonic: Newton on G in (0, G*); without the capacity, in (0, infinity) and the pipe's
+  // capacity shows as an exit Mach number at or above 1/sqrt(gamma).
+  const logPressureRatio = Math.log(p1 / pd);
+  const pressureSquares = (p1 - pd) * (p1 + pd);
+  let flux = Number.NaN;
+  if (!(out.capacityKnown && pd <= chokedExitPressure)) {
+    flux = isothermalFlux(
+      pipe,
+      rt,
+      reynoldsPerFlux,
+      logPressureRatio,
+      pressureSquares,
+      out.capacityKnown ? chokedFlux : Number.POSITIVE_INFINITY,
+      out,
+    );
+  }
+  if (!out.capacityKnown && !((flux * sqrtRT) / pd < NEAR_CHOKE_MACH)) {
+    solveCapacity();
+    if (pd > chokedExitPressure) {
+      flux = isothermalFlux(
+        pipe,
+        rt,
+        reynoldsPerFlux,
+        logPressureRatio,
+        pressureSquares,
+        chokedFlux,
+        out,
+      );
+    }
+  }
+
+  if (out.capacityKnown && pd <= chokedExitPressure) {
     frictionParameter(pipe, chokedFlux * reynoldsPerFlux, friction);
     out.choked = true;
     out.massFlow = out.capacity;
@@ -500,35 +667,6 @@ function evaluateIsothermal(
     return;
   }
 
-  // Subsonic: Newton on G in [0, G*].
-  const logPressureRatio = Math.log(p1 / pd);
-  const pressureSquares = (p1 - pd) * (p1 + pd);
-  let flux = out.lastInletMach; // stores G for this model
-  let fluxLo = 0;
-  let fluxHi = chokedFlux;
-  if (!(flux > 0 && flux < fluxHi)) {
-    frictionParameter(pipe, Math.max(0.5 * chokedFlux * reynoldsPerFlux, 1), friction);
-    flux = Math.min(
-      0.9 * fluxHi,
-      Math.sqrt(pressureSquares / (rt * (friction.value + 2 * logPressureRatio))),
-    );
-  }
-  for (let iteration = 0; iteration < 100; iteration++) {
-    const reynolds = flux * reynoldsPerFlux;
-    frictionParameter(pipe, reynolds, friction);
-    const q = flux * flux * rt * (friction.value + 2 * logPressureRatio) - pressureSquares;
-    if (Math.abs(q) <= 1e-15 * pressureSquares) break;
-    if (q > 0) fluxHi = flux;
-    else fluxLo = flux;
-    const slope =
-      2 * flux * rt * (friction.value + 2 * logPressureRatio) +
-      flux * rt * friction.slope * reynolds;
-    let next = flux - q / slope;
-    if (!(next > fluxLo && next < fluxHi)) next = 0.5 * (fluxLo + fluxHi);
-    const change = Math.abs(next - flux);
-    flux = next;
-    if (change <= 1e-14 * flux) break;
-  }
   const reynolds = flux * reynoldsPerFlux;
   frictionParameter(pipe, reynolds, friction);
   out.lastInletMach = flux;
@@ -560,4 +698,80 @@ function evaluateIsothermal(
   out.dArrivalTemperaturedUpstreamPressure = dTa_dLogM * (dFluxdP1 / flux);
   out.dArrivalTemperaturedUpstreamTemperature = factor + dTa_dLogM * (dFluxdT / flux + 0.5 / t);
   out.dArrivalTemperaturedDownstreamPressure = dTa_dLogM * (dFluxdPd / flux - 1 / pd);
+}
+
+/** r = p2* / p1 of an isothermal pipe at its capacity: r^2 (X(Re) + 1 - 2 ln r) = 1. */
+function isothermalCapacityRatio(
+  pipe: PipeGeometry,
+  p1: number,
+  sqrtRT: number,
+  reynoldsPerFlux: number,
+  guess: number,
+  friction: FrictionScratch,
+): number {
+  let ratio = guess > 0 && guess < 1 ? guess : 0.5;
+  let lo = 0;
+  let hi = 1;
+  for (let iteration = 0; iteration < 100; iteration++) {
+    const flux = (p1 * ratio) / sqrtRT;
+    const reynolds = flux * reynoldsPerFlux;
+    frictionParameter(pipe, reynolds, friction);
+    const value = ratio * ratio * (friction.value + 1 - 2 * Math.log(ratio)) - 1;
+    if (Math.abs(value) <= 1e-14) break;
+    if (value > 0) hi = ratio;
+    else lo = ratio;
+    // d/dr with X(Re(r)): 2r(X - 2 ln r) + r^2 X_Re Re / r
+    const slope =
+      2 * ratio * (friction.value - 2 * Math.log(ratio)) + ratio * friction.slope * reynolds;
+    let next = ratio - value / slope;
+    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    const change = Math.abs(next - ratio);
+    ratio = next;
+    if (change <= 1e-14) break;
+  }
+  return ratio;
+}
+
+/**
+ * Mass flux G of an isothermal pipe for a pressure pair, by safeguarded Newton on
+ * Q(G) = G^2 R T (X(Re) + 2 ln(p1/pd)) - (p1^2 - pd^2), which rises with G, in (0, upper).
+ */
+function isothermalFlux(
+  pipe: PipeGeometry,
+  rt: number,
+  reynoldsPerFlux: number,
+  logPressureRatio: number,
+  pressureSquares: number,
+  upper: number,
+  out: PipeFlowEvaluation,
+): number {
+  const friction = out.friction;
+  let flux = out.lastInletMach; // stores G for this model
+  let fluxLo = 0;
+  let fluxHi = upper;
+  if (!(flux > 0 && flux < fluxHi)) {
+    const guessReynolds = Number.isFinite(upper) ? 0.5 * upper * reynoldsPerFlux : 1e5;
+    frictionParameter(pipe, Math.max(guessReynolds, 1), friction);
+    flux = Math.sqrt(pressureSquares / (rt * (friction.value + 2 * logPressureRatio)));
+    if (Number.isFinite(upper)) flux = Math.min(0.9 * upper, flux);
+  }
+  for (let iteration = 0; iteration < 100; iteration++) {
+    const reynolds = flux * reynoldsPerFlux;
+    frictionParameter(pipe, reynolds, friction);
+    // Newton in ln G on ln(G^2 R T (X + 2 ln(p1/pd))) - ln(p1^2 - pd^2), nearly linear.
+    const total = friction.value + 2 * logPressureRatio;
+    const q = Math.log((flux * flux * rt * total) / pressureSquares);
+    if (Math.abs(q) <= 1e-14) break;
+    if (q > 0) fluxHi = flux;
+    else fluxLo = flux;
+    const slope = 2 + (friction.slope * reynolds) / total; // dq / d ln G
+    let next = flux * Math.exp(-q / slope);
+    if (!(next > fluxLo && next < fluxHi)) {
+      next = Number.isFinite(fluxHi) ? 0.5 * (fluxLo + fluxHi) : 2 * Math.max(flux, fluxLo);
+    }
+    const change = Math.abs(next - flux);
+    flux = next;
+    if (change <= 1e-13 * flux) break;
+  }
+  return flux;
 }

@@ -286,9 +286,46 @@ export function pipeOutlet(
   });
   if (massFlow > capacity * (1 + 1e-12)) return overCapacity();
 
+  const evaluation = new PipeFlowEvaluation();
+  if (!outletForMassFlow(geometry, gas, p0, t0, massFlow, evaluation)) return overCapacity();
+  evaluation.capacity = capacity;
+  const { reynolds, frictionFactor } = evaluation;
+  const ends = endStatesOf(kernelGas, geometry.model, t0, evaluation);
+  return {
+    ok: true,
+    flow: {
+      massFlow,
+      choked: evaluation.choked,
+      capacity,
+      chokeRatio: capacity > 0 ? massFlow / capacity : 0,
+      reynolds,
+      frictionFactor,
+      inlet: ends.inlet,
+      outlet: ends.outlet,
+    },
+  };
+}
+
+/**
+ * The outlet state for a given mass flow from a plenum at (p0, T0), written into `evaluation`
+ * (massFlow, inlet and outlet pressures and Mach numbers, Re, fD, choked). Returns false when the
+ * flow cannot pass (above the pipe's capacity). Internal: no argument checks, no capacity solve;
+ * the solver's independent check of exit pressures uses it directly.
+ */
+export function outletForMassFlow(
+  geometry: PipeGeometry,
+  gas: Gas,
+  p0: number,
+  t0: number,
+  massFlow: number,
+  evaluation: PipeFlowEvaluation,
+): boolean {
+  const gamma = gas.heatCapacityRatio;
+  const r = gas.specificGasConstant;
+  const area = 0.25 * Math.PI * geometry.diameter * geometry.diameter;
   const flux = massFlow / area;
   const mu = gasViscosity(gas, t0);
-  const reynolds = (flux * pipe.diameter) / mu;
+  const reynolds = (flux * geometry.diameter) / mu;
   const frictionFactor = Number.isNaN(geometry.fixedFrictionFactor)
     ? darcyFrictionFactor(reynolds, geometry.roughness / geometry.diameter)
     : Math.max(
@@ -297,9 +334,7 @@ export function pipeOutlet(
       );
   const frictionParameter =
     frictionFactor * (geometry.length / geometry.diameter) + geometry.minorLoss;
-  const evaluation = new PipeFlowEvaluation();
   evaluation.massFlow = massFlow;
-  evaluation.capacity = capacity;
   evaluation.reynolds = reynolds;
   evaluation.frictionFactor = frictionFactor;
 
@@ -308,11 +343,11 @@ export function pipeOutlet(
     evaluation.outletPressure = p0;
   } else if (geometry.model === "adiabatic") {
     const parameter = (flux * Math.sqrt(r * t0)) / p0;
-    if (parameter > maxMassFluxParameter(gamma)) return overCapacity();
+    if (parameter > maxMassFluxParameter(gamma)) return false;
     const inletMach = machFromMassFluxParameter(parameter, gamma, "subsonic");
     const remaining = fannoParameter(inletMach, gamma) - frictionParameter;
     if (remaining < 0) {
-      if (remaining < -1e-9 * frictionParameter) return overCapacity();
+      if (remaining < -1e-9 * frictionParameter) return false;
     }
     const outletMach = remaining <= 0 ? 1 : machFromFannoParameter(remaining, gamma, "subsonic");
     const inletPressure = p0 * isentropicPressureRatio(inletMach, gamma);
@@ -329,7 +364,7 @@ export function pipeOutlet(
     const lowest = flux * Math.sqrt(rt); // exit Mach 1/sqrt(gamma)
     const h = (p2: number) =>
       flux * flux * rt * (frictionParameter + 2 * Math.log(p0 / p2)) - (p0 * p0 - p2 * p2);
-    if (h(lowest) > 0) return overCapacity();
+    if (h(lowest) > 0) return false;
     let lo = lowest;
     let hi = p0;
     let p2 = 0.5 * (lo + hi);
@@ -354,18 +389,5 @@ export function pipeOutlet(
     evaluation.outletMach = (flux * Math.sqrt(rt)) / (p2 * Math.sqrt(gamma));
     evaluation.choked = Math.abs(p2 - lowest) <= 1e-9 * p0;
   }
-  const ends = endStatesOf(kernelGas, geometry.model, t0, evaluation);
-  return {
-    ok: true,
-    flow: {
-      massFlow,
-      choked: evaluation.choked,
-      capacity,
-      chokeRatio: capacity > 0 ? massFlow / capacity : 0,
-      reynolds,
-      frictionFactor,
-      inlet: ends.inlet,
-      outlet: ends.outlet,
-    },
-  };
+  return true;
 }

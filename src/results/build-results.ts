@@ -3,7 +3,7 @@
  * of the solver, and the design-limit warnings.
  */
 import type { DesignLimits } from "../input/document-types.js";
-import { endStatesOf, pipeOutlet } from "../physics/pipe.js";
+import { endStatesOf, outletForMassFlow } from "../physics/pipe.js";
 import { evaluatePipeFlow, PipeFlowEvaluation, type PipeGeometry } from "../physics/pipe-flow.js";
 import {
   type NetworkSystem,
@@ -40,6 +40,7 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
   const enthalpyArriving = new Float64Array(nodeCount);
   const edges: EdgeResult[] = [];
   let heatIn = 0;
+  const inverse = new PipeFlowEvaluation();
   let largestExitPressureMismatch = 0;
 
   doc.edges.forEach((edge, e) => {
@@ -73,22 +74,8 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
 
     if (!evaluation.choked && flow > 0) {
       // Independent check: the inverse relation must put this flow's exit at the node pressure.
-      const inverse = pipeOutlet(
-        gas,
-        {
-          length: pipe.length,
-          diameter: pipe.diameter,
-          roughness: pipe.roughness,
-          ...(Number.isNaN(pipe.fixedFrictionFactor)
-            ? {}
-            : { frictionFactor: pipe.fixedFrictionFactor }),
-          minorLoss: pipe.minorLoss,
-          model: pipe.model,
-        },
-        { pressure: pUp, temperature: tUp },
-        flow,
-      );
-      const exitPressure = inverse.ok ? inverse.flow.outlet.pressure : inverse.chokedOutletPressure;
+      const passes = outletForMassFlow(pipe, gas, pUp, tUp, flow, inverse);
+      const exitPressure = passes ? inverse.outletPressure : Number.POSITIVE_INFINITY;
       const mismatch = Math.abs(exitPressure - pDown) / pDown;
       largestExitPressureMismatch = Math.max(largestExitPressureMismatch, mismatch);
     }

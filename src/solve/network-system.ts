@@ -227,6 +227,7 @@ export function evaluateSystem(
       tUp,
       pDown,
       system.evaluations[e] as PipeFlowEvaluation,
+      false,
     );
     const sign = forward ? 1 : -1;
     massFlow[e] = sign * result.massFlow;

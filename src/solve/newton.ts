@@ -2,7 +2,12 @@
  * Damped Newton iteration on a network system: sparse Jacobian, step limits that keep pressures
  * and temperatures positive, and a backtracking line search on the scaled residual norm.
  */
-import { evaluateSystem, type NetworkSystem, type SystemEvaluation } from "./network-system.js";
+import {
+  evaluateSystem,
+  type NetworkSystem,
+  networkThroughput,
+  type SystemEvaluation,
+} from "./network-system.js";
 import { factorBlockMatrix, solveFactored } from "./sparse-block-lu.js";
 
 /** Options of {@link newtonSolve}. */
@@ -30,6 +35,8 @@ export interface NewtonOutcome {
   evaluation: SystemEvaluation;
   /** Why it stopped when not converged. */
   stopReason?: "iterations" | "time" | "stalled" | "non-finite";
+  /** Number of system evaluations (each one pipe relation per edge), line-search trials included. */
+  evaluations: number;
 }
 
 /** Largest fraction by which one step may change a pressure or a temperature. */
@@ -65,6 +72,7 @@ export function newtonSolve(
 ): NewtonOutcome {
   let x: Float64Array = Float64Array.from(x0);
   const started = options.now?.();
+  let evaluations = 1;
   let evaluation = evaluateSystem(system, x, true);
   let best = { x, evaluation, norm: squaredNorm(evaluation.residual) };
   let iterations = 0;
@@ -77,6 +85,7 @@ export function newtonSolve(
       massResidual: largest(chosen.evaluation.residual, 0),
       energyResidual: largest(chosen.evaluation.residual, 1),
       evaluation: chosen.evaluation,
+      evaluations,
     };
     if (stopReason !== undefined) result.stopReason = stopReason;
     return result;
@@ -129,7 +138,9 @@ export function newtonSolve(
     while (alpha >= MIN_STEP) {
       const trial = new Float64Array(x.length);
       for (let i = 0; i < x.length; i++) trial[i] = (x[i] as number) + alpha * (step[i] as number);
-      const trialEvaluation = evaluateSystem(system, trial, false, evaluation.throughput);
+      // With the Jacobian: if the trial is accepted, it is the next iterate as it stands.
+      const trialEvaluation = evaluateSystem(system, trial, true, evaluation.throughput);
+      evaluations++;
       const trialNorm = squaredNorm(trialEvaluation.residual);
       if (Number.isFinite(trialNorm) && trialNorm <= (1 - 2 * SUFFICIENT_DECREASE * alpha) * norm) {
         accepted = { x: trial, evaluation: trialEvaluation };
@@ -146,14 +157,39 @@ export function newtonSolve(
       for (let i = 0; i < x.length; i++)
         trial[i] = (x[i] as number) + alphaShort * (step[i] as number);
       if (!trial.every((value) => value > 0)) return outcome(false, "stalled");
-      const trialEvaluation = evaluateSystem(system, trial, false, evaluation.throughput);
+      const trialEvaluation = evaluateSystem(system, trial, true, evaluation.throughput);
+      evaluations++;
       if (!(squaredNorm(trialEvaluation.residual) < norm)) return outcome(false, "stalled");
       accepted = { x: trial, evaluation: trialEvaluation };
     }
     x = accepted.x;
-    evaluation = evaluateSystem(system, x, true);
+    // Re-evaluate only if the mass scale moved (the throughput follows the reservoir flows).
+    // The trial was scaled by the old throughput; bring its mass rows to this state's own.
+    evaluation = withOwnThroughput(system, accepted.evaluation);
     const currentNorm = squaredNorm(evaluation.residual);
     if (currentNorm < best.norm || !Number.isFinite(best.norm))
       best = { x, evaluation, norm: currentNorm };
   }
+}
+
+/**
+ * The evaluation with its mass rows (residuals and Jacobian) rescaled to the throughput of its
+ * own state. Mass rows are linear in 1/W; the energy rows depend on W only through the no-flow
+ * weight, by a relative (eps W)^2 that is below rounding.
+ */
+function withOwnThroughput(system: NetworkSystem, evaluation: SystemEvaluation): SystemEvaluation {
+  const own = networkThroughput(system, evaluation.nodeNetOutflow);
+  if (own === evaluation.throughput) return evaluation;
+  const factor = evaluation.throughput / own;
+  const residual = Float64Array.from(evaluation.residual);
+  for (let i = 0; i < residual.length; i += 2) residual[i] = (residual[i] as number) * factor;
+  let jacobian = evaluation.jacobian;
+  if (jacobian !== undefined) {
+    jacobian = Float64Array.from(jacobian);
+    for (let b = 0; b < jacobian.length; b += 4) {
+      jacobian[b] = (jacobian[b] as number) * factor;
+      jacobian[b + 1] = (jacobian[b + 1] as number) * factor;
+    }
+  }
+  return { ...evaluation, residual, jacobian, throughput: own };
 }

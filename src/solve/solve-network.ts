@@ -105,9 +105,14 @@ export function solveCheckedDocument(
         code: "continuation",
         message: `solved by ramping the demands up from zero in ${rescue.steps} steps (plain Newton from the first guess did not converge)`,
       });
-    } else if (rescue.scale < 1 && hasDemands(system)) {
-      status = "no-solution";
-      diagnosis = diagnose(system, outcome, rescue);
+    } else if (rescue.scale > 0 && rescue.scale < 1 && hasDemands(system)) {
+      // Evidence of infeasibility: part of the demand solves, more does not, and edges are at
+      // their capacity there. Without that evidence the result stays "not converged".
+      const found = diagnose(system, outcome, rescue);
+      if (found.limitingEdges.length > 0) {
+        status = "no-solution";
+        diagnosis = found;
+      }
     }
   }
 

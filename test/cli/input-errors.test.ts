@@ -7,7 +7,9 @@ import { json, TWO_CONSUMERS } from "./networks.js";
 import { lines, runCli } from "./run-cli.js";
 
 /** Run with the real file system (the default readFile of main). */
-async function runOnDisk(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+async function runOnDisk(
+  args: string[],
+): Promise<{ code: number; stdout: string; stderr: string }> {
   let stdout = "";
   let stderr = "";
   const code = await main(args, {
@@ -26,7 +28,10 @@ describe("files that cannot be read (real file system)", () => {
   beforeAll(async () => {
     directory = await mkdtemp(join(tmpdir(), "machnet-cli-"));
     // "é" as 0xC3 0xA9 is valid; 0xC3 followed by "(" (0x28) is not a UTF-8 sequence.
-    await writeFile(join(directory, "latin.json"), Buffer.from([0x7b, 0x22, 0xc3, 0x28, 0x22, 0x7d]));
+    await writeFile(
+      join(directory, "latin.json"),
+      Buffer.from([0x7b, 0x22, 0xc3, 0x28, 0x22, 0x7d]),
+    );
     await writeFile(join(directory, "empty.json"), "");
     await writeFile(join(directory, "bom.json"), `\ufeff${json(TWO_CONSUMERS)}`, "utf8");
   });
@@ -118,7 +123,9 @@ describe("documents that are not valid", () => {
     const problems = lines(run.stderr);
     expect(problems).toHaveLength(2);
     expect(problems[0]).toBe('net.json: /edges/1: missing required field "to"');
-    expect(problems[1]).toMatch(/^net\.json: \/edges\/2\/colour: unknown field "colour"; allowed fields here: /);
+    expect(problems[1]).toMatch(
+      /^net\.json: \/edges\/2\/colour: unknown field "colour"; allowed fields here: /,
+    );
   });
 
   test("a bad unit names its path", async () => {
@@ -163,7 +170,9 @@ describe("machnet check", () => {
     const run = await runCli(["check", "psi.json"], { "psi.json": json(document) });
     expect(run.code).toBe(0);
     expect(lines(run.stderr)).toEqual([
-      expect.stringMatching(/^note: psi\.json: \/nodes\/0\/pressure: "100 psi" was read as an absolute pressure/),
+      expect.stringMatching(
+        /^note: psi\.json: \/nodes\/0\/pressure: "100 psi" was read as an absolute pressure/,
+      ),
     ]);
   });
 });

@@ -24,16 +24,24 @@ describe("help and version", () => {
     expect(run.stdout).toMatch(/^ {2}3 {2}internal error/m);
   });
 
-  test.each(["solve", "check", "state"])("machnet help %s shows that command's usage", async (command) => {
-    const run = await runCli(["help", command]);
-    expect(run.code).toBe(0);
-    expect(lines(run.stdout)[0]).toMatch(new RegExp(`^Usage: machnet ${command} `));
-  });
+  test.each(["solve", "check", "state"])(
+    "machnet help %s shows that command's usage",
+    async (command) => {
+      const run = await runCli(["help", command]);
+      expect(run.code).toBe(0);
+      expect(lines(run.stdout)[0]).toMatch(new RegExp(`^Usage: machnet ${command} `));
+    },
+  );
 
   test("solve --help names every option", async () => {
     const run = await runCli(["solve", "--help"]);
     expect(run.code).toBe(0);
-    for (const option of ["--format <format>", "--units <set>", "-o, --output <path>", "--table <table>"]) {
+    for (const option of [
+      "--format <format>",
+      "--units <set>",
+      "-o, --output <path>",
+      "--table <table>",
+    ]) {
       expect(run.stdout).toContain(option);
     }
   });
@@ -51,9 +59,18 @@ describe("bad command lines exit 2", () => {
     [["frob"], "error: unknown command 'frob'"],
     [["solve"], "error: missing required argument 'file'"],
     [["solve", "a.json", "--colour"], "error: unknown option '--colour'"],
-    [["solve", "a.json", "--format", "xml"], "error: option '--format <format>' argument 'xml' is invalid. Allowed choices are table, json, csv."],
-    [["solve", "a.json", "--units", "imperial"], "error: option '--units <set>' argument 'imperial' is invalid. Allowed choices are si, metric, us."],
-    [["solve", "a.json", "--table", "pipes"], "error: option '--table <table>' argument 'pipes' is invalid. Allowed choices are edges, nodes."],
+    [
+      ["solve", "a.json", "--format", "xml"],
+      "error: option '--format <format>' argument 'xml' is invalid. Allowed choices are table, json, csv.",
+    ],
+    [
+      ["solve", "a.json", "--units", "imperial"],
+      "error: option '--units <set>' argument 'imperial' is invalid. Allowed choices are si, metric, us.",
+    ],
+    [
+      ["solve", "a.json", "--table", "pipes"],
+      "error: option '--table <table>' argument 'pipes' is invalid. Allowed choices are edges, nodes.",
+    ],
     [["check"], "error: missing required argument 'file'"],
   ])("%j", async (args, message) => {
     const run = await runCli(args);
@@ -66,12 +83,18 @@ const built = existsSync(`${root}dist/src/cli/main.js`);
 
 describe("bin/machnet.js", () => {
   test.skipIf(!built)("runs the built command line and passes the exit code on", () => {
-    const version = spawnSync(process.execPath, [`${root}bin/machnet.js`, "--version"], { encoding: "utf8" });
-    expect(version.status).toBe(0);
-    expect(version.stdout).toBe(`${manifest.version}\n`);
-    const missing = spawnSync(process.execPath, [`${root}bin/machnet.js`, "check", `${root}no-such-file.json`], {
+    const version = spawnSync(process.execPath, [`${root}bin/machnet.js`, "--version"], {
       encoding: "utf8",
     });
+    expect(version.status).toBe(0);
+    expect(version.stdout).toBe(`${manifest.version}\n`);
+    const missing = spawnSync(
+      process.execPath,
+      [`${root}bin/machnet.js`, "check", `${root}no-such-file.json`],
+      {
+        encoding: "utf8",
+      },
+    );
     expect(missing.status).toBe(2);
     expect(missing.stderr).toBe(`${root}no-such-file.json: no such file\n`);
   });

@@ -5,7 +5,11 @@
  */
 import { afterEach, describe, expect, test, vi } from "vitest";
 import type { NetworkResult } from "../../src/results/result-types.js";
-import { InternalCheckError, solveCheckedDocument, solveNetwork } from "../../src/solve/solve-network.js";
+import {
+  InternalCheckError,
+  solveCheckedDocument,
+  solveNetwork,
+} from "../../src/solve/solve-network.js";
 import { json, TWO_CONSUMERS } from "./networks.js";
 import { lines, runCli } from "./run-cli.js";
 
@@ -36,7 +40,12 @@ describe("each non-solution status is marked and exits 1", () => {
       warnings: [{ code: status, message }, ...real.warnings],
     };
     if (status === "no-solution") {
-      fake.diagnosis = { largestFeasibleDemandScale: 0.61, limitingEdges: [], openEquations: [], message };
+      fake.diagnosis = {
+        largestFeasibleDemandScale: 0.61,
+        limitingEdges: [],
+        openEquations: [],
+        message,
+      };
     }
     vi.mocked(solveCheckedDocument).mockReturnValueOnce(fake);
     const run = await runCli(["solve", "two.json"], files);
@@ -61,7 +70,9 @@ describe("internal errors exit 3 with one line", () => {
     const run = await runCli(["solve", "two.json"], files);
     expect(run.code).toBe(3);
     expect(run.stdout).toBe("");
-    expect(run.stderr).toBe("internal error: the independent check failed; please report this network\n");
+    expect(run.stderr).toBe(
+      "internal error: the independent check failed; please report this network\n",
+    );
   });
 
   test("an unexpected exception is one line asking for a report", async () => {
@@ -83,7 +94,9 @@ describe("internal errors exit 3 with one line", () => {
     const run = await runCli(["solve", "two.json"], files, { MACHNET_DEBUG: "1" });
     expect(run.code).toBe(3);
     const [first, ...rest] = lines(run.stderr);
-    expect(first).toBe("internal error: TypeError: boom; please report it with the input that caused it");
+    expect(first).toBe(
+      "internal error: TypeError: boom; please report it with the input that caused it",
+    );
     expect(rest[0]).toBe("TypeError: boom");
     expect(rest.some((line) => /^\s+at /.test(line))).toBe(true);
   });

@@ -39,3 +39,18 @@ export const ONE_ITERATION = { ...TWO_CONSUMERS, settings: { maxIterations: 1 } 
 export function json(document: unknown): string {
   return JSON.stringify(document, null, 2);
 }
+
+/**
+ * 1 kg/s asked through 100 m of 20 mm pipe from 3 bar(a), 20 degC. Even a frictionless nozzle of
+ * that bore would pass at most 0.0404 p0 A / sqrt(T0) = 0.0404 x 3e5 Pa x 3.14e-4 m2 / 17.12 =
+ * 0.22 kg/s (Fliegner's formula for choked air, SI units; common practice), and the pipe's
+ * friction lowers that further: the demand cannot be met.
+ */
+export const OVERLOADED = {
+  name: "overloaded",
+  nodes: [
+    { id: "S", kind: "reservoir", pressure: "3 bar(a)", temperature: "20 degC" },
+    { id: "U", kind: "junction", demand: "1 kg/s" },
+  ],
+  edges: [{ id: "P", kind: "pipe", from: "S", to: "U", length: "100 m", diameter: "20 mm" }],
+};

@@ -1,7 +1,7 @@
 import { describe, expect, test } from "vitest";
 import { solveNetwork } from "../../src/index.js";
 import type { NetworkResult } from "../../src/results/result-types.js";
-import { json, ONE_ITERATION, TWO_CONSUMERS, VENT } from "./networks.js";
+import { json, ONE_ITERATION, OVERLOADED, TWO_CONSUMERS, VENT } from "./networks.js";
 import { lines, runCli } from "./run-cli.js";
 
 const CAUTION =
@@ -11,6 +11,7 @@ const files = {
   "two.json": json(TWO_CONSUMERS),
   "vent.json": json(VENT),
   "stuck.json": json(ONE_ITERATION),
+  "overloaded.json": json(OVERLOADED),
 };
 
 /** Definition of the bar (BIPM SI Brochure, Table 8): 1 bar = 1e5 Pa. */
@@ -33,10 +34,18 @@ describe("machnet solve --format table", () => {
     }
     // The receiver: 7 bar(g) with the default ambient 1.01325 bar(a) is 8.01325 bar(a).
     const receiver = out.find((line) => line.startsWith("REC "));
-    expect(receiver?.split(/\s+/).slice(0, 5)).toEqual(["REC", "reservoir", "8.01325", "7.00000", "25.000"]);
+    expect(receiver?.split(/\s+/).slice(0, 5)).toEqual([
+      "REC",
+      "reservoir",
+      "8.01325",
+      "7.00000",
+      "25.000",
+    ]);
     // The reservoir supplies both demands: 300 + 150 kg/h.
     expect(receiver?.split(/\s+/)[5]).toBe("-450.00");
-    expect(out.at(-2)).toMatch(/^solver: converged in \d+ iterations; largest scaled residual .*; throughput 450.00 kg\/h$/);
+    expect(out.at(-2)).toMatch(
+      /^solver: converged in \d+ iterations; largest scaled residual .*; throughput 450.00 kg\/h$/,
+    );
     expect(out.at(-1)).toBe(CAUTION);
     expect(run.stdout).not.toContain("CHOKED");
     expect(run.stdout).not.toContain("NOT A SOLUTION");
@@ -53,7 +62,8 @@ describe("machnet solve --format table", () => {
   test("shows US units with --units us", async () => {
     const run = await runCli(["solve", "vent.json", "--units", "us"], files);
     expect(run.code).toBe(0);
-    for (const unit of ["[psia]", "[psig]", "[°F]", "[lb/h]", "[ft/s]"]) expect(run.stdout).toContain(unit);
+    for (const unit of ["[psia]", "[psig]", "[°F]", "[lb/h]", "[ft/s]"])
+      expect(run.stdout).toContain(unit);
     // 1.01325 bar(a) is 14.6959 psia (1 psi = 6894.757 Pa: 1 lbf/in2 from the 1959 yard and pound).
     expect(run.stdout).toContain("ambient 14.6959 psia");
   });
@@ -73,7 +83,9 @@ describe("machnet solve --format table", () => {
     const run = await runCli(["solve", "bare.json"], { "bare.json": json(bare) });
     expect(run.code).toBe(0);
     expect(lines(run.stderr)).toEqual([
-      expect.stringMatching(/^note: bare\.json: \/nodes\/0\/pressure: "8 bar" was read as an absolute pressure/),
+      expect.stringMatching(
+        /^note: bare\.json: \/nodes\/0\/pressure: "8 bar" was read as an absolute pressure/,
+      ),
     ]);
     expect(run.stdout).not.toContain("was read as an absolute pressure");
   });
@@ -116,10 +128,15 @@ describe("machnet solve --format csv", () => {
   });
 
   test("--table nodes writes the nodes, in SI with --units si", async () => {
-    const run = await runCli(["solve", "two.json", "--format", "csv", "--table", "nodes", "--units", "si"], files);
+    const run = await runCli(
+      ["solve", "two.json", "--format", "csv", "--table", "nodes", "--units", "si"],
+      files,
+    );
     expect(run.code).toBe(0);
     const rows = lines(run.stdout);
-    expect(rows[0]).toBe("id,kind,pressure [Pa],gauge pressure [Pa(g)],temperature [K],demand [kg/s]");
+    expect(rows[0]).toBe(
+      "id,kind,pressure [Pa],gauge pressure [Pa(g)],temperature [K],demand [kg/s]",
+    );
     expect(rows[1]).toMatch(/^REC,reservoir,801325,700000,298.15,/);
   });
 
@@ -133,7 +150,10 @@ describe("machnet solve --format csv", () => {
 
 describe("machnet solve --output", () => {
   test("writes the output to the file and nothing to standard output", async () => {
-    const run = await runCli(["solve", "two.json", "--format", "csv", "--output", "out.csv"], files);
+    const run = await runCli(
+      ["solve", "two.json", "--format", "csv", "--output", "out.csv"],
+      files,
+    );
     expect(run.code).toBe(0);
     expect(run.stdout).toBe("");
     expect(run.written.get("out.csv")?.startsWith("id,from,to,mass flow [kg/h]")).toBe(true);
@@ -142,7 +162,9 @@ describe("machnet solve --output", () => {
   test("a file that cannot be written is exit 2 with one line", async () => {
     const run = await runCli(["solve", "two.json", "-o", "/read-only/out.txt"], files);
     expect(run.code).toBe(2);
-    expect(lines(run.stderr)).toEqual([expect.stringMatching(/^\/read-only\/out\.txt: cannot write the output \(EACCES/)]);
+    expect(lines(run.stderr)).toEqual([
+      expect.stringMatching(/^\/read-only\/out\.txt: cannot write the output \(EACCES/),
+    ]);
   });
 });
 
@@ -172,5 +194,15 @@ describe("results that are not a solution exit 1", () => {
     expect(run.code).toBe(1);
     expect(lines(run.stdout)[0]).toMatch(/^# NOT A SOLUTION: /);
     expect(lines(run.stdout)[1]).toMatch(/^id,from,to,/);
+  });
+
+  test("a demand beyond what the pipe can pass is no solution, naming the limiting edge", async () => {
+    const run = await runCli(["solve", "overloaded.json"], files);
+    expect(run.code).toBe(1);
+    const first = lines(run.stdout)[0] ?? "";
+    expect(first).toMatch(/^NOT A SOLUTION: no solution: .*\bedge P\b/);
+    expect(lines(run.stderr)).toEqual([
+      `overloaded.json: ${first.slice("NOT A SOLUTION: ".length)}`,
+    ]);
   });
 });

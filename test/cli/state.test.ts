@@ -16,7 +16,9 @@ const CLOSED_FORM = 1e-12;
 
 function expectRelative(actual: unknown, expected: number, tolerance: number): void {
   expect(typeof actual).toBe("number");
-  expect(Math.abs((actual as number) - expected)).toBeLessThanOrEqual(tolerance * Math.abs(expected));
+  expect(Math.abs((actual as number) - expected)).toBeLessThanOrEqual(
+    tolerance * Math.abs(expected),
+  );
 }
 
 async function stateJson(args: string[]): Promise<Record<string, number | null>> {
@@ -32,7 +34,14 @@ describe("machnet state: static pressure and temperature with one flow quantity"
   const mach = 0.5;
 
   test("air at 101325 Pa, 288.15 K, Mach 0.5 matches the hand calculation", async () => {
-    const state = await stateJson(["--pressure", "101325 Pa", "--temperature", "288.15 K", "--mach", "0.5"]);
+    const state = await stateJson([
+      "--pressure",
+      "101325 Pa",
+      "--temperature",
+      "288.15 K",
+      "--mach",
+      "0.5",
+    ]);
     expect(Object.keys(state)).toEqual([
       "density",
       "speedOfSound",
@@ -53,14 +62,30 @@ describe("machnet state: static pressure and temperature with one flow quantity"
   test("p / p0 at Mach 0.5 is the isentropic table value 0.8430", async () => {
     // NACA Report 1135 (Ames Research Staff, 1953), Table I, gamma 1.4, M 0.50: p/p0 = 0.8430
     // (PRACTICE.md 7.1). Tolerance: half a unit in the fourth digit.
-    const state = await stateJson(["--pressure", "101325 Pa", "--temperature", "288.15 K", "--mach", "0.5"]);
-    expect(Math.abs(pressure / (state.stagnationPressure as number) - 0.843)).toBeLessThanOrEqual(5e-5);
+    const state = await stateJson([
+      "--pressure",
+      "101325 Pa",
+      "--temperature",
+      "288.15 K",
+      "--mach",
+      "0.5",
+    ]);
+    expect(Math.abs(pressure / (state.stagnationPressure as number) - 0.843)).toBeLessThanOrEqual(
+      5e-5,
+    );
   });
 
   test("the sea-level state has the ISO 2533 density and speed of sound", async () => {
     // ISO 2533:1975 sea level: rho 1.2250 kg/m3 (tolerance: half a unit in the last printed
     // digit), a 340.294 m/s (computed there with Ru = 8.31432, 9e-6 lower: tolerance 2e-5).
-    const state = await stateJson(["--pressure", "1 atm", "--temperature", "15 degC", "--velocity", "0 m/s"]);
+    const state = await stateJson([
+      "--pressure",
+      "1 atm",
+      "--temperature",
+      "15 degC",
+      "--velocity",
+      "0 m/s",
+    ]);
     expect(Math.abs((state.density as number) - 1.225)).toBeLessThanOrEqual(5e-5);
     expectRelative(state.speedOfSound, 340.294, 2e-5);
     expect(state.mach).toBe(0);
@@ -68,7 +93,14 @@ describe("machnet state: static pressure and temperature with one flow quantity"
   });
 
   test("--velocity gives Mach v / a", async () => {
-    const state = await stateJson(["--pressure", "6 bar(g)", "--temperature", "25 degC", "--velocity", "20 m/s"]);
+    const state = await stateJson([
+      "--pressure",
+      "6 bar(g)",
+      "--temperature",
+      "25 degC",
+      "--velocity",
+      "20 m/s",
+    ]);
     const t = celsius(25);
     expectRelative(state.mach, 20 / Math.sqrt(GAMMA * R_AIR * t), CLOSED_FORM);
     expectRelative(state.density, (6e5 + 101325) / (R_AIR * t), CLOSED_FORM);
@@ -92,8 +124,22 @@ describe("machnet state: static pressure and temperature with one flow quantity"
   test("--mass-flux in US units reads through mathjs: 30 lb/(ft2 s)", async () => {
     // 1 lb = 0.45359237 kg, 1 ft = 0.3048 m (1959 international yard and pound).
     const flux = (30 * 0.45359237) / 0.3048 ** 2;
-    const metric = await stateJson(["--pressure", "1 atm", "--temperature", "0 degC", "--mass-flux", `${flux} kg/(m2 s)`]);
-    const us = await stateJson(["--pressure", "1 atm", "--temperature", "0 degC", "--mass-flux", "30 lb/(ft2 s)"]);
+    const metric = await stateJson([
+      "--pressure",
+      "1 atm",
+      "--temperature",
+      "0 degC",
+      "--mass-flux",
+      `${flux} kg/(m2 s)`,
+    ]);
+    const us = await stateJson([
+      "--pressure",
+      "1 atm",
+      "--temperature",
+      "0 degC",
+      "--mass-flux",
+      "30 lb/(ft2 s)",
+    ]);
     expectRelative(us.velocity, metric.velocity as number, CLOSED_FORM);
   });
 
@@ -122,7 +168,12 @@ describe("machnet state: static pressure and temperature with one flow quantity"
 
 describe("machnet state: stagnation temperature and static temperature", () => {
   test("Mach from M = sqrt(2 / (gamma - 1) (T0 / T - 1)); no pressure, no density", async () => {
-    const state = await stateJson(["--stagnation-temperature", "20 degC", "--temperature", "10 degC"]);
+    const state = await stateJson([
+      "--stagnation-temperature",
+      "20 degC",
+      "--temperature",
+      "10 degC",
+    ]);
     const t0 = celsius(20);
     const t = celsius(10);
     const mach = Math.sqrt((2 / (GAMMA - 1)) * (t0 / t - 1));
@@ -134,7 +185,12 @@ describe("machnet state: stagnation temperature and static temperature", () => {
 
   test("T / T0 = 0.95238 is Mach 0.5 (NACA Report 1135, Table I)", async () => {
     // Table value printed to 5 digits: M is then good to 5e-6 / |d(T/T0)/dM| = 2.8e-5.
-    const state = await stateJson(["--stagnation-temperature", `${288.15 / 0.95238} K`, "--temperature", "288.15 K"]);
+    const state = await stateJson([
+      "--stagnation-temperature",
+      `${288.15 / 0.95238} K`,
+      "--temperature",
+      "288.15 K",
+    ]);
     expect(Math.abs((state.mach as number) - 0.5)).toBeLessThanOrEqual(5e-5);
   });
 
@@ -153,7 +209,15 @@ describe("machnet state: stagnation temperature and static temperature", () => {
   });
 
   test("a static temperature above the stagnation temperature is exit 2", async () => {
-    const run = await runCli(["state", "--gas", "air", "--stagnation-temperature", "20 degC", "--temperature", "30 degC"]);
+    const run = await runCli([
+      "state",
+      "--gas",
+      "air",
+      "--stagnation-temperature",
+      "20 degC",
+      "--temperature",
+      "30 degC",
+    ]);
     expect(run.code).toBe(2);
     expect(run.stderr).toBe(
       "--temperature: the static temperature 303.150 K is above the stagnation temperature 293.150 K; in adiabatic flow T <= T0\n",
@@ -225,18 +289,48 @@ describe("machnet state: wrong calls exit 2 with a message", () => {
     [["--pressure", "6 bar(g)"], "not enough to go on"],
     [["--pressure", "6 bar(g)", "--mach", "0.3"], "--mach also needs --temperature"],
     [
-      ["--pressure", "6 bar(g)", "--temperature", "20 degC", "--mach", "0.3", "--velocity", "20 m/s"],
+      [
+        "--pressure",
+        "6 bar(g)",
+        "--temperature",
+        "20 degC",
+        "--mach",
+        "0.3",
+        "--velocity",
+        "20 m/s",
+      ],
       "give only one of --velocity, --mach, --mass-flux (got --velocity, --mach)",
     ],
     [
-      ["--pressure", "6 bar(g)", "--temperature", "20 degC", "--mach", "0.3", "--stagnation-temperature", "30 degC"],
+      [
+        "--pressure",
+        "6 bar(g)",
+        "--temperature",
+        "20 degC",
+        "--mach",
+        "0.3",
+        "--stagnation-temperature",
+        "30 degC",
+      ],
       "--stagnation-temperature cannot be combined with --mach",
     ],
     [
-      ["--stagnation-pressure", "8 bar(a)", "--stagnation-temperature", "20 degC", "--pressure", "7 bar(a)", "--temperature", "15 degC"],
+      [
+        "--stagnation-pressure",
+        "8 bar(a)",
+        "--stagnation-temperature",
+        "20 degC",
+        "--pressure",
+        "7 bar(a)",
+        "--temperature",
+        "15 degC",
+      ],
       "--temperature cannot be combined with --stagnation-pressure (the static temperature is computed from it)",
     ],
-    [["--stagnation-pressure", "8 bar(a)", "--pressure", "7 bar(a)"], "--stagnation-pressure also needs --stagnation-temperature"],
+    [
+      ["--stagnation-pressure", "8 bar(a)", "--pressure", "7 bar(a)"],
+      "--stagnation-pressure also needs --stagnation-temperature",
+    ],
   ])("%j", async (args, problem) => {
     const run = await runCli(["state", "--gas", "air", ...args]);
     expect(run.code).toBe(2);
@@ -245,7 +339,17 @@ describe("machnet state: wrong calls exit 2 with a message", () => {
   });
 
   test("an unknown gas lists the presets", async () => {
-    const run = await runCli(["state", "--gas", "xenon", "--pressure", "1 atm", "--temperature", "20 degC", "--mach", "0.1"]);
+    const run = await runCli([
+      "state",
+      "--gas",
+      "xenon",
+      "--pressure",
+      "1 atm",
+      "--temperature",
+      "20 degC",
+      "--mach",
+      "0.1",
+    ]);
     expect(run.code).toBe(2);
     expect(run.stderr).toBe(
       '--gas: unknown gas "xenon"; presets: air, nitrogen, oxygen, argon, helium, hydrogen, carbon-dioxide, methane, natural-gas\n',
@@ -253,26 +357,66 @@ describe("machnet state: wrong calls exit 2 with a message", () => {
   });
 
   test("a missing --gas is exit 2", async () => {
-    const run = await runCli(["state", "--pressure", "1 atm", "--temperature", "20 degC", "--mach", "0.1"]);
+    const run = await runCli([
+      "state",
+      "--pressure",
+      "1 atm",
+      "--temperature",
+      "20 degC",
+      "--mach",
+      "0.1",
+    ]);
     expect(run.code).toBe(2);
     expect(run.stderr).toMatch(/required option '--gas <name>' not specified/);
   });
 
   test("a quantity that cannot be read names the flag", async () => {
-    const run = await runCli(["state", "--gas", "air", "--pressure", "6 bra", "--temperature", "20 degC", "--mach", "0.1"]);
+    const run = await runCli([
+      "state",
+      "--gas",
+      "air",
+      "--pressure",
+      "6 bra",
+      "--temperature",
+      "20 degC",
+      "--mach",
+      "0.1",
+    ]);
     expect(run.code).toBe(2);
     expect(run.stderr).toMatch(/^--pressure: unknown unit "bra" \(got "6 bra"\); pressure units: /);
     expect(lines(run.stderr)).toHaveLength(1);
   });
 
   test("a Mach number with a unit is refused", async () => {
-    const run = await runCli(["state", "--gas", "air", "--pressure", "1 atm", "--temperature", "20 degC", "--mach", "0.5 m"]);
+    const run = await runCli([
+      "state",
+      "--gas",
+      "air",
+      "--pressure",
+      "1 atm",
+      "--temperature",
+      "20 degC",
+      "--mach",
+      "0.5 m",
+    ]);
     expect(run.code).toBe(2);
-    expect(run.stderr).toBe('--mach: must be a plain number such as "0.5", without a unit (got "0.5 m")\n');
+    expect(run.stderr).toBe(
+      '--mach: must be a plain number such as "0.5", without a unit (got "0.5 m")\n',
+    );
   });
 
   test("a negative velocity is refused", async () => {
-    const run = await runCli(["state", "--gas", "air", "--pressure", "1 atm", "--temperature", "20 degC", "--velocity", "-5 m/s"]);
+    const run = await runCli([
+      "state",
+      "--gas",
+      "air",
+      "--pressure",
+      "1 atm",
+      "--temperature",
+      "20 degC",
+      "--velocity",
+      "-5 m/s",
+    ]);
     expect(run.code).toBe(2);
     expect(run.stderr).toBe("--velocity: must be 0 or more (got -5 m/s)\n");
   });
@@ -292,7 +436,9 @@ describe("machnet state: wrong calls exit 2 with a message", () => {
       "0 bar(g)",
     ]);
     expect(run.code).toBe(2);
-    expect(run.stderr).toMatch(/^--ambient-pressure: the reference of gauge pressures must be absolute/);
+    expect(run.stderr).toMatch(
+      /^--ambient-pressure: the reference of gauge pressures must be absolute/,
+    );
   });
 
   test("--ambient-pressure moves gauge readings", async () => {
@@ -310,9 +456,25 @@ describe("machnet state: wrong calls exit 2 with a message", () => {
   });
 
   test("a bare bar is read as absolute with a note on standard error", async () => {
-    const run = await runCli(["state", "--gas", "air", "--pressure", "6 bar", "--temperature", "20 degC", "--mach", "0", "--format", "json"]);
+    const run = await runCli([
+      "state",
+      "--gas",
+      "air",
+      "--pressure",
+      "6 bar",
+      "--temperature",
+      "20 degC",
+      "--mach",
+      "0",
+      "--format",
+      "json",
+    ]);
     expect(run.code).toBe(0);
     expect(run.stderr).toMatch(/^note: --pressure: "6 bar" was read as an absolute pressure/);
-    expectRelative((JSON.parse(run.stdout) as { stagnationPressure: number }).stagnationPressure, 6e5, CLOSED_FORM);
+    expectRelative(
+      (JSON.parse(run.stdout) as { stagnationPressure: number }).stagnationPressure,
+      6e5,
+      CLOSED_FORM,
+    );
   });
 });

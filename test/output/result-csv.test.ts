@@ -10,7 +10,7 @@ describe("resultCsv", () => {
     );
     // SI values pass through unchanged, at full precision; the id with a comma is quoted.
     expect(rows[1]).toBe(
-      '"main, north",SUPPLY,J1,0.125,800000,700000,101325,10,12,0.03,0.035,1195.2,123456.7,0.0213,0.25,',
+      '"main, north",SUPPLY,J1,0.125,800000,700000,100000,10,12,0.03,0.035,1195.2,123456.7,0.0213,0.25,',
     );
     expect(rows[2]?.endsWith(",CHOKED")).toBe(true);
     expect(rows).toHaveLength(4);
@@ -28,7 +28,9 @@ describe("resultCsv", () => {
 
   test("nodes: gauge pressure against the result's ambient", () => {
     const rows = resultCsv(sampleResult(), { table: "nodes", units: "si" }).split("\n");
-    expect(rows[0]).toBe("id,kind,pressure [Pa],gauge pressure [Pa(g)],temperature [K],demand [kg/s]");
+    expect(rows[0]).toBe(
+      "id,kind,pressure [Pa],gauge pressure [Pa(g)],temperature [K],demand [kg/s]",
+    );
     expect(rows[1]).toBe("SUPPLY,reservoir,801325,700000,293.15,-0.25");
   });
 

@@ -6,6 +6,7 @@ import {
   darcyFrictionFactor,
   darcyFrictionFactorLogSlope,
   darcyFrictionProduct,
+  darcyFrictionWithSlope,
   LAMINAR_LIMIT_REYNOLDS,
   laminarFrictionFactor,
   TURBULENT_LIMIT_REYNOLDS,
@@ -235,5 +236,18 @@ describe("@example values in src/physics/friction.ts", () => {
   });
   it("@example of darcyFrictionFactorLogSlope", () => {
     expect(darcyFrictionFactorLogSlope(1000, 0)).toBe(-1);
+  });
+});
+
+describe("darcyFrictionWithSlope", () => {
+  it("gives the same factor and slope as the two separate functions, in every regime", () => {
+    const out = { factor: 0, logSlope: 0 };
+    for (const reynolds of [50, 2300, 2301, 3000, 3999, 4000, 1e5, 1e8]) {
+      for (const roughness of [0, 1e-4, 0.01]) {
+        darcyFrictionWithSlope(reynolds, roughness, out);
+        expect(out.factor).toBe(darcyFrictionFactor(reynolds, roughness));
+        expect(out.logSlope).toBe(darcyFrictionFactorLogSlope(reynolds, roughness));
+      }
+    }
   });
 });
