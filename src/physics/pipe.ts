@@ -262,11 +262,8 @@ export function pipeOutlet(
   }
   const geometry = pipeGeometry(pipe);
   const kernelGas = pipeGas(gas);
-  const gamma = gas.heatCapacityRatio;
-  const r = gas.specificGasConstant;
   const p0 = upstream.pressure;
   const t0 = upstream.temperature;
-  const area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
   // Capacity and choked exit pressure from the forward kernel at a vanishing back-pressure.
   const capacityEvaluation = evaluatePipeFlow(
     geometry,
