@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, test } from "vitest";
-import { parseQuantity, type QuantityKind } from "../../src/input/quantity.js";
 import { MOLAR_GAS_CONSTANT } from "../../src/gas/gas.js";
+import { parseQuantity, type QuantityKind } from "../../src/input/quantity.js";
 import { REFERENCE_CONDITIONS, referenceDensity } from "../../src/input/reference-conditions.js";
 
 // Unit definitions, written here from the defining documents (not from the code under test):

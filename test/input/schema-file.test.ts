@@ -4,7 +4,9 @@ import { networkSchema } from "../../src/input/network-schema.js";
 
 describe("schemas/network.schema.json", () => {
   it("is the schema the library validates with (regenerate with npm run schemas)", () => {
-    const file = JSON.parse(readFileSync(new URL("../../schemas/network.schema.json", import.meta.url), "utf8"));
+    const file = JSON.parse(
+      readFileSync(new URL("../../schemas/network.schema.json", import.meta.url), "utf8"),
+    );
     expect(file).toEqual(JSON.parse(JSON.stringify(networkSchema)));
   });
 

@@ -72,10 +72,9 @@ export interface DrawnElement {
 
 /** The pipes (`kind` "edge") or nodes of a drawing, in drawing order. */
 export function drawnElements(svg: string, kind: "edge" | "node"): DrawnElement[] {
-  const marker = `<g class="mn-${kind}`;
-  const pieces = svg.split(marker).slice(1);
-  return pieces.map((piece) => {
-    const markup = `${marker}${piece}`;
+  const starts = [...svg.matchAll(new RegExp(`<g class="mn-${kind}[ "]`, "g"))].map((match) => match.index);
+  return starts.map((start, index) => {
+    const markup = svg.slice(start, starts[index + 1] ?? svg.length);
     const end = markup.indexOf(">");
     return { attributes: attributes(markup.slice(0, end + 1)), markup };
   });

@@ -1,16 +1,29 @@
 import { describe, expect, it } from "vitest";
 import { gasPreset, type Pipe, pipeFlow, pipeOutlet } from "../../src/index.js";
-import { type PipeGeometry, evaluatePipeFlow, PipeFlowEvaluation } from "../../src/physics/pipe-flow.js";
 import { pipeGas, pipeGeometry } from "../../src/physics/pipe.js";
+import {
+  evaluatePipeFlow,
+  PipeFlowEvaluation,
+  type PipeGeometry,
+} from "../../src/physics/pipe-flow.js";
 
 const air = gasPreset("air");
 const upstream = { pressure: 7e5, temperature: 293.15 };
 
 const pipes: [string, Pipe][] = [
   ["adiabatic, Colebrook-White", { length: 50, diameter: 0.0525, roughness: 4.5e-5 }],
-  ["adiabatic, fixed friction factor and fittings", { length: 12, diameter: 0.0266, frictionFactor: 0.024, minorLoss: 3.5 }],
-  ["isothermal, Colebrook-White", { length: 800, diameter: 0.1023, roughness: 5e-5, model: "isothermal" }],
-  ["isothermal, fixed friction factor", { length: 60, diameter: 0.0409, frictionFactor: 0.02, model: "isothermal" }],
+  [
+    "adiabatic, fixed friction factor and fittings",
+    { length: 12, diameter: 0.0266, frictionFactor: 0.024, minorLoss: 3.5 },
+  ],
+  [
+    "isothermal, Colebrook-White",
+    { length: 800, diameter: 0.1023, roughness: 5e-5, model: "isothermal" },
+  ],
+  [
+    "isothermal, fixed friction factor",
+    { length: 60, diameter: 0.0409, frictionFactor: 0.02, model: "isothermal" },
+  ],
 ];
 
 describe("pipeFlow and pipeOutlet are inverses", () => {
@@ -22,7 +35,9 @@ describe("pipeFlow and pipeOutlet are inverses", () => {
         const back = pipeOutlet(air, pipe, upstream, flow.massFlow);
         expect(back.ok).toBe(true);
         if (back.ok) {
-          expect(Math.abs(back.flow.outlet.pressure / (fraction * upstream.pressure) - 1)).toBeLessThan(1e-10);
+          expect(
+            Math.abs(back.flow.outlet.pressure / (fraction * upstream.pressure) - 1),
+          ).toBeLessThan(1e-10);
           expect(back.flow.outlet.mach).toBeCloseTo(flow.outlet.mach, 10);
         }
       }
@@ -42,11 +57,15 @@ describe("pipeFlow and pipeOutlet are inverses", () => {
   }
 
   it("refuses impossible pipes and states with a message naming the value", () => {
-    expect(() => pipeFlow(air, { length: 0, diameter: 0.05 }, upstream, 6e5)).toThrow(/length must be > 0 m \(got 0\)/);
-    expect(() => pipeFlow(air, { length: 5, diameter: 0.05 }, { pressure: 7e5, temperature: -3 }, 6e5)).toThrow(
-      /upstream temperature must be > 0 K/,
+    expect(() => pipeFlow(air, { length: 0, diameter: 0.05 }, upstream, 6e5)).toThrow(
+      /length must be > 0 m \(got 0\)/,
     );
-    expect(() => pipeFlow(air, { length: 5, diameter: 0.05 }, upstream, 8e5)).toThrow(/above the upstream pressure/);
+    expect(() =>
+      pipeFlow(air, { length: 5, diameter: 0.05 }, { pressure: 7e5, temperature: -3 }, 6e5),
+    ).toThrow(/upstream temperature must be > 0 K/);
+    expect(() => pipeFlow(air, { length: 5, diameter: 0.05 }, upstream, 8e5)).toThrow(
+      /above the upstream pressure/,
+    );
   });
 });
 
@@ -91,7 +110,11 @@ describe("derivatives of the pipe flow used by the network Jacobian", () => {
     ["adiabatic subsonic, fixed f", pipes[1]?.[1] as Pipe, 5.0e5],
     ["adiabatic choked", pipes[1]?.[1] as Pipe, 1.0e5],
     ["adiabatic, transition Re", { length: 400, diameter: 0.0266, roughness: 5e-5 }, 6.99999e5],
-    ["adiabatic, laminar (Re about 740)", { length: 2000, diameter: 0.0266, roughness: 5e-5 }, 6.999e5],
+    [
+      "adiabatic, laminar (Re about 740)",
+      { length: 2000, diameter: 0.0266, roughness: 5e-5 },
+      6.999e5,
+    ],
     ["isothermal subsonic", pipes[2]?.[1] as Pipe, 5.5e5],
     ["isothermal choked", pipes[3]?.[1] as Pipe, 1.0e5],
   ];
@@ -106,8 +129,16 @@ describe("derivatives of the pipe flow used by the network Jacobian", () => {
       const step = Math.max(1e-4 * (p0 - pd), 1e-9 * p0);
       const checks: [number, (h: number) => number, number][] = [
         [base.dMassFlowdUpstreamPressure, (h) => evaluate(geometry, p0 + h, t0, pd).massFlow, step],
-        [base.dMassFlowdUpstreamTemperature, (h) => evaluate(geometry, p0, t0 + h, pd).massFlow, 1e-3],
-        [base.dMassFlowdDownstreamPressure, (h) => evaluate(geometry, p0, t0, pd + h).massFlow, step],
+        [
+          base.dMassFlowdUpstreamTemperature,
+          (h) => evaluate(geometry, p0, t0 + h, pd).massFlow,
+          1e-3,
+        ],
+        [
+          base.dMassFlowdDownstreamPressure,
+          (h) => evaluate(geometry, p0, t0, pd + h).massFlow,
+          step,
+        ],
       ];
       for (const [analytic, at, h] of checks) {
         const difference = (at(h) - at(-h)) / (2 * h);
@@ -123,7 +154,7 @@ describe("derivatives of the pipe flow used by the network Jacobian", () => {
     const geometry = pipeGeometry({ length: 40, diameter: 0.0525, roughness: 5e-5 });
     const zero = evaluate(geometry, 5e5, 300, 5e5);
     const density = 5e5 / (air.specificGasConstant * 300);
-    const viscosity = 1.458e-6 * 300 ** 1.5 / (300 + 110.4); // US Standard Atmosphere 1976 law
+    const viscosity = (1.458e-6 * 300 ** 1.5) / (300 + 110.4); // US Standard Atmosphere 1976 law
     const area = (Math.PI / 4) * 0.0525 ** 2;
     const expected = (density * 0.0525 ** 2 * area) / (32 * viscosity * 40);
     expect(zero.massFlow).toBe(0);

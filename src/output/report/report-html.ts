@@ -118,7 +118,7 @@ function profileSection(
       ? "to the lowest-pressure node that gas flows into"
       : `to the chosen node ${options.profileTo}`;
   const against = path.followsFlow ? "" : " Parts of the path run against the flow.";
-  const intro = `<p>From <b>${escapeMarkup(first)}</b> ${escapeMarkup(how)}, <b>${escapeMarkup(last)}</b>, following upstream the pipe that brings each node its largest inflow: ${path.steps.length} pipes, ${escapeMarkup(formatNumber(length.fromSI(total)))} ${escapeMarkup(length.label)}.${escapeMarkup(against)} Points inside each pipe from the ${result.edges.some((edge) => edge.model === "isothermal") ? "Fanno and isothermal" : "Fanno"} relations from its inlet state (minor losses spread evenly along the pipe); nodes are plenums, gas at rest.</p>`;
+  const intro = `<p>From <strong>${escapeMarkup(first)}</strong> ${escapeMarkup(how)}, <strong>${escapeMarkup(last)}</strong>, following upstream the pipe that brings each node its largest inflow: ${path.steps.length} pipes, ${escapeMarkup(formatNumber(length.fromSI(total)))} ${escapeMarkup(length.label)}.${escapeMarkup(against)} Points inside each pipe from the ${result.edges.some((edge) => edge.model === "isothermal") ? "Fanno and isothermal" : "Fanno"} relations from its inlet state (minor losses spread evenly along the pipe); nodes are plenums, gas at rest.</p>`;
   const routeHtml = `<p class="mn-route" data-path="${escapeMarkup(path.nodes.join(" "))}" data-pipes="${escapeMarkup(path.steps.map((step) => step.edgeId).join(" "))}">${route}</p>`;
   return section(
     "profile",
