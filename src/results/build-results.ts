@@ -3,8 +3,13 @@
  * of the solver, and the design-limit warnings.
  */
 import type { DesignLimits } from "../input/document-types.js";
-import { endStatesOf, outletForMassFlow } from "../physics/pipe.js";
-import { evaluatePipeFlow, PipeFlowEvaluation, type PipeGeometry } from "../physics/pipe-flow.js";
+import {
+  type EdgeElement,
+  edgeEndStates,
+  evaluateEdgeFlow,
+  exitPressureForFlow,
+} from "../physics/edge-flow.js";
+import { PipeFlowEvaluation } from "../physics/pipe-flow.js";
 import {
   type NetworkSystem,
   NO_FLOW_WEIGHT,
@@ -54,14 +59,18 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     const pUp = forward ? pFrom : pTo;
     const pDown = forward ? pTo : pFrom;
     const tUp = nodeTemperature(system, x, upstream);
-    const pipe = system.pipes[e] as PipeGeometry;
-    const evaluation = evaluatePipeFlow(
-      pipe,
+    const element = system.elements[e] as EdgeElement;
+    // Evaluated afresh from the final node states, with the capacity (warm-started from the
+    // solver's last evaluation of this edge for speed: the root does not depend on the start).
+    const evaluation = evaluateEdgeFlow(
+      element,
       system.gas,
       pUp,
       tUp,
       pDown,
-      new PipeFlowEvaluation(),
+      forward,
+      system.evaluations[e] as PipeFlowEvaluation,
+      true,
     );
     const flow = evaluation.massFlow;
     const signed = forward ? flow : -flow;
@@ -74,19 +83,20 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
 
     if (!evaluation.choked && flow > 0) {
       // Independent check: the inverse relation must put this flow's exit at the node pressure.
-      const passes = outletForMassFlow(pipe, gas, pUp, tUp, flow, inverse);
-      const exitPressure = passes ? inverse.outletPressure : Number.POSITIVE_INFINITY;
-      const mismatch = Math.abs(exitPressure - pDown) / pDown;
-      largestExitPressureMismatch = Math.max(largestExitPressureMismatch, mismatch);
+      const exitPressure = exitPressureForFlow(element, gas, pUp, tUp, flow, inverse);
+      if (!Number.isNaN(exitPressure)) {
+        const mismatch = Math.abs(exitPressure - pDown) / pDown;
+        largestExitPressureMismatch = Math.max(largestExitPressureMismatch, mismatch);
+      }
     }
 
-    const ends = endStatesOf(system.gas, pipe.model, tUp, evaluation);
+    const ends = edgeEndStates(element, system.gas, tUp, evaluation);
     edges.push({
       id: edge.id,
       kind: edge.kind,
       from: edge.from,
       to: edge.to,
-      model: pipe.model,
+      model: element.model,
       massFlow: signed === 0 ? 0 : signed,
       choked: evaluation.choked,
       chokeRatio: evaluation.choked ? 1 : evaluation.capacity > 0 ? flow / evaluation.capacity : 0,

@@ -8,6 +8,7 @@
  * Each round freezes |m| and solves the resulting linear network for P = p^2; |m| is then
  * averaged with the new flows (damping that keeps the rounds from oscillating).
  */
+import { squaredLawResistance } from "../physics/edge-flow.js";
 import { darcyFrictionFactor } from "../physics/friction.js";
 import type { NetworkSystem } from "./network-system.js";
 import { NO_FLOW_WEIGHT } from "./network-system.js";
@@ -40,14 +41,11 @@ export function initialGuess(system: NetworkSystem): Float64Array {
   const flowMagnitude = new Float64Array(edgeCount);
   const signedFlow = new Float64Array(edgeCount);
   for (let e = 0; e < edgeCount; e++) {
-    const pipe = system.pipes[e];
-    if (pipe === undefined) continue;
-    const area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
-    const factor = Number.isNaN(pipe.fixedFrictionFactor)
-      ? darcyFrictionFactor(1e6, pipe.roughness / pipe.diameter)
-      : pipe.fixedFrictionFactor;
-    resistance[e] =
-      (rt * (factor * (pipe.length / pipe.diameter) + pipe.minorLoss + 1)) / (area * area);
+    const element = system.elements[e];
+    if (element === undefined) continue;
+    resistance[e] = squaredLawResistance(element, rt, (relativeRoughness) =>
+      darcyFrictionFactor(1e6, relativeRoughness),
+    );
     // Flow that a 10 % drop of p^2 across this edge alone would carry: the edge's own scale.
     flowMagnitude[e] = Math.sqrt((0.1 * squaredScale) / (resistance[e] as number));
   }

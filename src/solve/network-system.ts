@@ -22,12 +22,8 @@
  */
 import { gasViscosity } from "../gas/gas.js";
 import type { NetworkModel } from "../model/build-network.js";
-import {
-  evaluatePipeFlow,
-  PipeFlowEvaluation,
-  type PipeGas,
-  type PipeGeometry,
-} from "../physics/pipe-flow.js";
+import { type EdgeElement, evaluateEdgeFlow } from "../physics/edge-flow.js";
+import { PipeFlowEvaluation, type PipeGas } from "../physics/pipe-flow.js";
 import type { BlockLuStructure } from "./sparse-block-lu.js";
 import { analyzeBlockPattern } from "./sparse-block-lu.js";
 
@@ -52,7 +48,8 @@ export interface NetworkSystem {
   model: NetworkModel;
   junctionCount: number;
   edgeCount: number;
-  pipes: PipeGeometry[];
+  /** Every edge as the solver sees it. */
+  elements: EdgeElement[];
   gas: PipeGas;
   /** Reference scales of the unknowns. */
   pressureScale: number;
@@ -97,7 +94,8 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
     heatCapacityRatio: gasData.heatCapacityRatio,
     viscosity: (temperature: number) => gasViscosity(gasData, temperature),
   };
-  const pipes: PipeGeometry[] = doc.edges.map((edge) => ({
+  const elements: EdgeElement[] = doc.edges.map((edge) => ({
+    kind: edge.kind,
     length: edge.length,
     diameter: edge.diameter,
     roughness: edge.roughness ?? 0,
@@ -157,7 +155,7 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
     model,
     junctionCount,
     edgeCount: model.edgeFrom.length,
-    pipes,
+    elements,
     gas,
     pressureScale,
     temperatureScale,
@@ -168,7 +166,7 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
     ambientTemperature: doc.ambientTemperature,
     structure,
     edgeBlocks,
-    evaluations: pipes.map(() => new PipeFlowEvaluation()),
+    evaluations: elements.map(() => new PipeFlowEvaluation()),
   };
 }
 
@@ -220,12 +218,13 @@ export function evaluateSystem(
     const pUp = forward ? pFrom : pTo;
     const pDown = forward ? pTo : pFrom;
     const tUp = nodeTemperature(system, x, upstream);
-    const result = evaluatePipeFlow(
-      system.pipes[e] as PipeGeometry,
+    const result = evaluateEdgeFlow(
+      system.elements[e] as EdgeElement,
       system.gas,
       pUp,
       tUp,
       pDown,
+      forward,
       system.evaluations[e] as PipeFlowEvaluation,
       false,
     );

@@ -1,0 +1,105 @@
+/**
+ * Every kind of edge the network solver knows, behind one set of functions: the flow with its
+ * derivatives for given end states, the p-squared resistance for the first guess, the exit
+ * pressure of a given flow for the independent check, and the end states for the results.
+ *
+ * A new edge kind (a component) adds its element type to {@link EdgeElement} and a branch to
+ * each function here; the solver itself does not change. See DEVELOPERS.md.
+ */
+import type { Gas } from "../gas/gas-types.js";
+import { endStatesOf, outletForMassFlow, type PipeEndState } from "./pipe.js";
+import {
+  evaluatePipeFlow,
+  type PipeFlowEvaluation,
+  type PipeGas,
+  type PipeGeometry,
+} from "./pipe-flow.js";
+
+/** A pipe as an edge of the network. */
+export interface PipeElement extends PipeGeometry {
+  kind: "pipe";
+}
+
+/** Every edge kind, as the solver sees it (SI values). */
+export type EdgeElement = PipeElement;
+
+/**
+ * Flow through an edge from its upstream end (stagnation state p0, T0) to its downstream end at
+ * pressure pd <= p0, with derivatives, into `out`.
+ *
+ * @param forward - true when the upstream end is the edge's declared `from` node (components
+ *   that pass flow one way only need it; pipes do not)
+ * @param needCapacity - also compute the capacity (the largest flow) when not near choking
+ */
+export function evaluateEdgeFlow(
+  element: EdgeElement,
+  gas: PipeGas,
+  upstreamPressure: number,
+  upstreamTemperature: number,
+  downstreamPressure: number,
+  forward: boolean,
+  out: PipeFlowEvaluation,
+  needCapacity: boolean,
+): PipeFlowEvaluation {
+  void forward;
+  return evaluatePipeFlow(
+    element,
+    gas,
+    upstreamPressure,
+    upstreamTemperature,
+    downstreamPressure,
+    out,
+    needCapacity,
+  );
+}
+
+/**
+ * Resistance k of the p-squared law p_u^2 - p_d^2 = k m |m| used by the first guess, for a gas
+ * with R T = `gasConstantTimesTemperature` [J/kg] and a turbulent friction factor estimate.
+ */
+export function squaredLawResistance(
+  element: EdgeElement,
+  gasConstantTimesTemperature: number,
+  turbulentFrictionFactor: (relativeRoughness: number) => number,
+): number {
+  const area = 0.25 * Math.PI * element.diameter * element.diameter;
+  const factor = Number.isNaN(element.fixedFrictionFactor)
+    ? turbulentFrictionFactor(element.roughness / element.diameter)
+    : element.fixedFrictionFactor;
+  const parameter = factor * (element.length / element.diameter) + element.minorLoss + 1;
+  return (gasConstantTimesTemperature * parameter) / (area * area);
+}
+
+/**
+ * Exit static pressure of a given flow from an upstream plenum (the inverse relation), for the
+ * independent check of a solution; +Infinity when the flow cannot pass; NaN when the element has
+ * no such check. `scratch` receives the intermediate state.
+ */
+export function exitPressureForFlow(
+  element: EdgeElement,
+  gas: Gas,
+  upstreamPressure: number,
+  upstreamTemperature: number,
+  massFlow: number,
+  scratch: PipeFlowEvaluation,
+): number {
+  const passes = outletForMassFlow(
+    element,
+    gas,
+    upstreamPressure,
+    upstreamTemperature,
+    massFlow,
+    scratch,
+  );
+  return passes ? scratch.outletPressure : Number.POSITIVE_INFINITY;
+}
+
+/** Gas states just inside the edge at its upstream and downstream ends. */
+export function edgeEndStates(
+  element: EdgeElement,
+  gas: PipeGas,
+  upstreamTemperature: number,
+  evaluation: PipeFlowEvaluation,
+): { inlet: PipeEndState; outlet: PipeEndState } {
+  return endStatesOf(gas, element.model, upstreamTemperature, evaluation);
+}
