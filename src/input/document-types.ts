@@ -41,6 +41,8 @@ export interface SettingsInput {
   pipeModel?: PipeModelName;
   tolerance?: number;
   maxIterations?: number;
+  /** Wall-time budget of one solve [s]. */
+  timeLimit?: number;
   limits?: LimitsInput;
 }
 
@@ -101,6 +103,8 @@ export interface SolverSettings {
   tolerance: number;
   /** @defaultValue 100 */
   maxIterations: number;
+  /** Wall-time budget of one solve [s]; a solve that runs out is a not-converged result. */
+  timeLimit?: number;
   limits: DesignLimits;
 }
 

@@ -111,6 +111,13 @@ export const networkSchema = {
           maximum: 10000,
           description: "Newton iterations before giving up. Default 100.",
         },
+        timeLimit: {
+          type: "number",
+          exclusiveMinimum: 0,
+          maximum: 86400,
+          description:
+            "Wall-time budget of one solve in seconds; a solve that runs out returns its best iterate marked not converged. Default: none.",
+        },
         limits: {
           type: "object",
           description: "Design limits: each one exceeded gives a warning naming the edge or node.",

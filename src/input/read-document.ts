@@ -16,6 +16,7 @@ import type {
   InputNote,
   NetworkDocument,
   QuantityInput,
+  SolverSettings,
 } from "./document-types.js";
 import { InputError, type InputIssue, jsonPointer, sortIssues } from "./issues.js";
 import { networkSchema } from "./network-schema.js";
@@ -396,12 +397,13 @@ function convertDocument(doc: NetworkDocument): ReadResult {
   );
   if (minPressure !== undefined) limits.minPressure = minPressure;
 
-  const settings = {
+  const settings: SolverSettings = {
     pipeModel: doc.settings?.pipeModel ?? DEFAULT_SETTINGS.pipeModel,
     tolerance: doc.settings?.tolerance ?? DEFAULT_SETTINGS.tolerance,
     maxIterations: doc.settings?.maxIterations ?? DEFAULT_SETTINGS.maxIterations,
     limits,
   };
+  if (doc.settings?.timeLimit !== undefined) settings.timeLimit = doc.settings.timeLimit;
 
   const nodes: CheckedNode[] = doc.nodes.map((node, index) => readNode(node, index, reader));
   const edges: CheckedEdge[] = doc.edges.map((edge, index) =>

@@ -16,9 +16,9 @@ export interface NewtonOptions {
   tolerance: number;
   /** Iterations before giving up. */
   maxIterations: number;
-  /** Stop after this many milliseconds of wall time (checked once per iteration). */
-  timeLimitMs?: number;
-  /** Clock for the time limit (injected so the core reads no clock of its own unless asked). */
+  /** Stop when `now()` passes this time [ms] (checked once per iteration). */
+  deadline?: number;
+  /** Clock for the deadline (injected so the core reads no clock of its own unless asked). */
   now?: () => number;
 }
 
@@ -71,7 +71,6 @@ export function newtonSolve(
   options: NewtonOptions,
 ): NewtonOutcome {
   let x: Float64Array = Float64Array.from(x0);
-  const started = options.now?.();
   let evaluations = 1;
   let evaluation = evaluateSystem(system, x, true);
   let best = { x, evaluation, norm: squaredNorm(evaluation.residual) };
@@ -103,10 +102,9 @@ export function newtonSolve(
     }
     if (iterations >= options.maxIterations) return outcome(false, "iterations");
     if (
-      options.timeLimitMs !== undefined &&
+      options.deadline !== undefined &&
       options.now !== undefined &&
-      started !== undefined &&
-      options.now() - started > options.timeLimitMs
+      options.now() > options.deadline
     ) {
       return outcome(false, "time");
     }

@@ -14,9 +14,15 @@ import { type NewtonOutcome, newtonSolve } from "./newton.js";
 
 /** Options of {@link solveNetwork}. */
 export interface SolveOptions {
-  /** Stop after this many milliseconds (needs `now`). */
+  /**
+   * Stop after this many milliseconds of wall time, returning the best iterate marked not
+   * converged. Overrides `settings.timeLimit` of the document. @defaultValue no limit
+   */
   timeLimitMs?: number;
-  /** Clock in milliseconds, e.g. `() => performance.now()`; the core reads no clock otherwise. */
+  /**
+   * Clock in milliseconds for the time limit. @defaultValue `performance.now` when a time limit
+   * is set; no clock is read otherwise
+   */
   now?: () => number;
   /**
    * Start from a previous result of the same network (warm start): its junction pressures and
@@ -73,14 +79,31 @@ export function solveCheckedDocument(
   checked: CheckedDocument,
   options: SolveOptions = {},
 ): NetworkResult {
+  return solveWithState(checked, options).result;
+}
+
+/** A solve with the solver's own state, for callers inside machnet (sensitivities, studies). */
+export interface SolvedState {
+  result: NetworkResult;
+  /** The network's system (structure, elements, warm starts). */
+  system: NetworkSystem;
+  /** Scaled unknowns of the final state (2 per junction: p / pScale, T / TScale). */
+  x: Float64Array;
+}
+
+/** Solve a checked document and keep the solver's state (internal API). */
+export function solveWithState(checked: CheckedDocument, options: SolveOptions = {}): SolvedState {
   const model = modelOf(checked);
   const system = createNetworkSystem(model);
   const settings = checked.settings;
+  const limitMs =
+    options.timeLimitMs ??
+    (settings.timeLimit !== undefined ? 1000 * settings.timeLimit : undefined);
+  const now = limitMs !== undefined ? (options.now ?? (() => performance.now())) : undefined;
   const newtonOptions = {
     tolerance: settings.tolerance,
     maxIterations: settings.maxIterations,
-    ...(options.timeLimitMs !== undefined ? { timeLimitMs: options.timeLimitMs } : {}),
-    ...(options.now !== undefined ? { now: options.now } : {}),
+    ...(limitMs !== undefined && now !== undefined ? { deadline: now() + limitMs, now } : {}),
   };
 
   const start = options.initialResult
@@ -163,7 +186,7 @@ export function solveCheckedDocument(
     ambient: { pressure: checked.ambientPressure, temperature: checked.ambientTemperature },
   };
   if (diagnosis) result.diagnosis = diagnosis;
-  return result;
+  return { result, system, x: outcome.x };
 }
 
 function hasDemands(system: NetworkSystem): boolean {
@@ -218,6 +241,12 @@ function continuation(
   let scale = 0;
   let step = 0.25;
   while (scale < 1 && step >= 1 / 1024) {
+    if (
+      options.deadline !== undefined &&
+      options.now !== undefined &&
+      options.now() > options.deadline
+    )
+      break;
     const target = Math.min(1, scale + step);
     const attempt = newtonSolve(withDemandScale(system, target), solved.x, options);
     iterations += attempt.iterations;
