@@ -9,7 +9,8 @@
  *   energy: sum over inflowing edges of m_e (T_arrive,e - T_j)
  *           + injection_j (T_injected - T_j) + w_j (T_ambient - T_j) = 0,
  *           scaled by (inflow_j + injection_j + w_j) T_ref, so it reads as a temperature error over
- *           T_ref (a bound on the enthalpy imbalance over W cp T_ref as well)
+ *           T_ref; convergence also asks the enthalpy imbalance over W T_ref to meet the
+ *           tolerance (src/solve/newton.ts)
  * The energy balance is written in this mixing form (the enthalpy balance minus cp T_j times the
  * mass balance), so a junction's temperature depends only on the gas arriving there. The weight
  * w_j = (eps W)^2 / (inflow_j + injection_j + eps W), eps = 1e-9 (the default tolerance), gives a junction that no
@@ -81,6 +82,11 @@ export interface SystemEvaluation {
   choked: Uint8Array;
   /** Net flow each node takes from the network [kg/s] (reservoirs: from the edges). */
   nodeNetOutflow: Float64Array;
+  /**
+   * Per junction, the scale its energy residual was divided by: (inflow + injection + w) T_ref
+   * [kg/s K]. residual * energyScale / (W T_ref) is the enthalpy imbalance over W cp T_ref.
+   */
+  energyScale: Float64Array;
   /** Throughput used to scale the mass residuals [kg/s]. */
   throughput: number;
 }
@@ -299,8 +305,8 @@ export function evaluateSystem(
       const demand = system.demand[node] as number;
       const weight = noFlowWeight(scale, (nodeInflow[node] as number) + (demand < 0 ? -demand : 0));
       const diagonal = -(weight + (demand < 0 ? -demand : 0));
-      jacobian[4 * j + 3] =
-        (jacobian[4 * j + 3] as number) + (diagonal * tS) / (energyScale[j] as number);
+      const rowScale = energyScale[j] as number;
+      jacobian[4 * j + 3] = (jacobian[4 * j + 3] as number) + (diagonal * tS) / rowScale;
     }
     for (let e = 0; e < edgeCount; e++) {
       const from = model.edgeFrom[e] as number;
@@ -345,20 +351,27 @@ export function evaluateSystem(
         const block = system.edgeBlocks[4 * e + 2 * downstreamRow + column] as number;
         if (block < 0) continue;
         const b = 4 * block;
-        const dP =
+        let dP =
           magnitudeSign * (flowSlopes[4 * e + 2 * column] as number) * difference +
           magnitude * (arrivalSlopes[4 * e + 2 * column] as number);
         let dT =
           magnitudeSign * (flowSlopes[4 * e + 2 * column + 1] as number) * difference +
           magnitude * (arrivalSlopes[4 * e + 2 * column + 1] as number);
         if (column === downstreamRow) dT -= magnitude;
+        // The row is divided by a scale that grows with the inflow: d(E/s) = (dE - (E/s) ds)/s,
+        // ds = T_ref d|m| (the no-flow weight's own change is negligible).
+        const scaledResidual = residual[2 * rowUnknown + 1] as number;
+        const dInflowP = magnitudeSign * (flowSlopes[4 * e + 2 * column] as number);
+        const dInflowT = magnitudeSign * (flowSlopes[4 * e + 2 * column + 1] as number);
+        dP -= scaledResidual * temperatureScale * dInflowP;
+        dT -= scaledResidual * temperatureScale * dInflowT;
         const rowScale = energyScale[rowUnknown] as number;
         jacobian[b + 2] = (jacobian[b + 2] as number) + (dP * pS) / rowScale;
         jacobian[b + 3] = (jacobian[b + 3] as number) + (dT * tS) / rowScale;
       }
     }
   }
-  return { residual, jacobian, massFlow, choked, nodeNetOutflow, throughput: scale };
+  return { residual, jacobian, massFlow, choked, nodeNetOutflow, energyScale, throughput: scale };
 }
 
 /**

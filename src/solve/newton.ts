@@ -30,7 +30,10 @@ export interface NewtonOutcome {
   iterations: number;
   /** Largest scaled mass and energy residuals at x. */
   massResidual: number;
+  /** Largest enthalpy imbalance of a junction over W T_ref. */
   energyResidual: number;
+  /** Largest temperature error of a junction over T_ref (the energy rows as Newton sees them). */
+  temperatureResidual: number;
   /** The system evaluated at x (flows, choke flags, throughput). */
   evaluation: SystemEvaluation;
   /** Why it stopped when not converged. */
@@ -42,6 +45,8 @@ export interface NewtonOutcome {
 /** Largest fraction by which one step may change a pressure or a temperature. */
 const MAX_PRESSURE_CHANGE = 0.5;
 const MAX_TEMPERATURE_CHANGE = 0.3;
+/** Largest accepted temperature error of a junction, relative to T_ref (0.3 mK at 300 K). */
+export const TEMPERATURE_TOLERANCE = 1e-6;
 /** Armijo constant and smallest step of the line search. */
 const SUFFICIENT_DECREASE = 1e-4;
 const MIN_STEP = 1e-6;
@@ -53,9 +58,36 @@ function largest(residual: Float64Array, offset: number): number {
   return value;
 }
 
-function squaredNorm(residual: Float64Array): number {
+/** Largest |enthalpy imbalance| of a junction over W T_ref. */
+function largestEnthalpyImbalance(evaluation: SystemEvaluation, temperatureScale: number): number {
+  const residual = evaluation.residual;
+  const enthalpyScale = evaluation.throughput * temperatureScale;
+  let value = 0;
+  for (let j = 0; 2 * j < residual.length; j++) {
+    const imbalance =
+      ((residual[2 * j + 1] as number) * (evaluation.energyScale[j] as number)) / enthalpyScale;
+    value = Math.max(value, Math.abs(imbalance));
+  }
+  return value;
+}
+
+/**
+ * Merit of the line search: the sum of squares of the mass residuals over W and of the enthalpy
+ * imbalances over W T_ref. The energy rows of the Newton system are scaled per junction (a
+ * temperature error), which weighs a junction with a trickle of flow like a main one; for the
+ * merit each junction counts by the enthalpy it carries, so that the ill-conditioned mixing
+ * temperature of a near-stagnant junction cannot veto a step that balances the network.
+ */
+function merit(evaluation: SystemEvaluation, temperatureScale: number): number {
+  const residual = evaluation.residual;
+  const enthalpyScale = evaluation.throughput * temperatureScale;
   let sum = 0;
-  for (let i = 0; i < residual.length; i++) sum += (residual[i] as number) ** 2;
+  for (let j = 0; 2 * j < residual.length; j++) {
+    const mass = residual[2 * j] as number;
+    const energy =
+      ((residual[2 * j + 1] as number) * (evaluation.energyScale[j] as number)) / enthalpyScale;
+    sum += mass * mass + energy * energy;
+  }
   return sum;
 }
 
@@ -73,7 +105,7 @@ export function newtonSolve(
   let x: Float64Array = Float64Array.from(x0);
   let evaluations = 1;
   let evaluation = evaluateSystem(system, x, true);
-  let best = { x, evaluation, norm: squaredNorm(evaluation.residual) };
+  let best = { x, evaluation, norm: merit(evaluation, system.temperatureScale) };
   let iterations = 0;
   const outcome = (converged: boolean, stopReason?: NewtonOutcome["stopReason"]): NewtonOutcome => {
     const chosen = converged ? { x, evaluation } : best;
@@ -82,7 +114,8 @@ export function newtonSolve(
       converged,
       iterations,
       massResidual: largest(chosen.evaluation.residual, 0),
-      energyResidual: largest(chosen.evaluation.residual, 1),
+      energyResidual: largestEnthalpyImbalance(chosen.evaluation, system.temperatureScale),
+      temperatureResidual: largest(chosen.evaluation.residual, 1),
       evaluation: chosen.evaluation,
       evaluations,
     };
@@ -93,10 +126,16 @@ export function newtonSolve(
   for (;;) {
     if (!allFinite(evaluation.residual)) return outcome(false, "non-finite");
     // Converged when the residuals at this state's own throughput meet the tolerance.
-    // (evaluation always uses this state's own throughput here.)
+    // Converged: mass and enthalpy balances to the tolerance (over W and W T_ref), and every
+    // junction temperature to TEMPERATURE_TOLERANCE or better. The temperature test holds the
+    // junctions with little or no flow, whose enthalpy imbalance is small whatever their
+    // temperature; it is not tighter, because where two trickles of different temperature mix,
+    // the flows themselves are known only to about 1e-7 (they follow from pressure differences
+    // of 1e-9 of the pressure), and so is their mixing temperature.
     if (
-      Math.max(largest(evaluation.residual, 0), largest(evaluation.residual, 1)) <=
-      options.tolerance
+      largest(evaluation.residual, 0) <= options.tolerance &&
+      largestEnthalpyImbalance(evaluation, system.temperatureScale) <= options.tolerance &&
+      largest(evaluation.residual, 1) <= Math.max(options.tolerance, TEMPERATURE_TOLERANCE)
     ) {
       return outcome(true);
     }
@@ -116,21 +155,25 @@ export function newtonSolve(
     const step = solveFactored(factorization, rhs);
     if (!allFinite(step)) return outcome(false, "non-finite");
 
-    // Step limit: no pressure or temperature changes by more than a set fraction at once.
+    // Step limits. Pressures are strongly coupled: the whole step is shortened so that none
+    // changes by more than a set fraction. A temperature's own step is clipped alone: a junction
+    // whose few inflows are reversing can ask for a large change of its mixing temperature
+    // without that holding back the rest of the network.
     let limit = 1;
     for (let j = 0; j < system.junctionCount; j++) {
       const p = x[2 * j] as number;
-      const t = x[2 * j + 1] as number;
       const dp = step[2 * j] as number;
-      const dt = step[2 * j + 1] as number;
-      if (Math.abs(dp) > MAX_PRESSURE_CHANGE * p)
+      if (Math.abs(dp) > MAX_PRESSURE_CHANGE * p) {
         limit = Math.min(limit, (MAX_PRESSURE_CHANGE * p) / Math.abs(dp));
-      if (Math.abs(dt) > MAX_TEMPERATURE_CHANGE * t)
-        limit = Math.min(limit, (MAX_TEMPERATURE_CHANGE * t) / Math.abs(dt));
+      }
+      const t = x[2 * j + 1] as number;
+      const largestChange = MAX_TEMPERATURE_CHANGE * t;
+      const dt = step[2 * j + 1] as number;
+      if (Math.abs(dt) > largestChange) step[2 * j + 1] = dt > 0 ? largestChange : -largestChange;
     }
 
     // Backtracking line search on 0.5 |R|^2 with the mass scale of this iteration held fixed.
-    const norm = squaredNorm(evaluation.residual);
+    const norm = merit(evaluation, system.temperatureScale);
     let alpha = limit;
     let accepted: { x: Float64Array; evaluation: SystemEvaluation } | undefined;
     while (alpha >= MIN_STEP) {
@@ -139,7 +182,7 @@ export function newtonSolve(
       // With the Jacobian: if the trial is accepted, it is the next iterate as it stands.
       const trialEvaluation = evaluateSystem(system, trial, true, evaluation.throughput);
       evaluations++;
-      const trialNorm = squaredNorm(trialEvaluation.residual);
+      const trialNorm = merit(trialEvaluation, system.temperatureScale);
       if (Number.isFinite(trialNorm) && trialNorm <= (1 - 2 * SUFFICIENT_DECREASE * alpha) * norm) {
         accepted = { x: trial, evaluation: trialEvaluation };
         break;
@@ -157,14 +200,15 @@ export function newtonSolve(
       if (!trial.every((value) => value > 0)) return outcome(false, "stalled");
       const trialEvaluation = evaluateSystem(system, trial, true, evaluation.throughput);
       evaluations++;
-      if (!(squaredNorm(trialEvaluation.residual) < norm)) return outcome(false, "stalled");
+      if (!(merit(trialEvaluation, system.temperatureScale) < norm))
+        return outcome(false, "stalled");
       accepted = { x: trial, evaluation: trialEvaluation };
     }
     x = accepted.x;
     // Re-evaluate only if the mass scale moved (the throughput follows the reservoir flows).
     // The trial was scaled by the old throughput; bring its mass rows to this state's own.
     evaluation = withOwnThroughput(system, accepted.evaluation);
-    const currentNorm = squaredNorm(evaluation.residual);
+    const currentNorm = merit(evaluation, system.temperatureScale);
     if (currentNorm < best.norm || !Number.isFinite(best.norm))
       best = { x, evaluation, norm: currentNorm };
   }
