@@ -93,3 +93,13 @@ export {
   type SolveOptions,
   solveNetwork,
 } from "./solve/solve-network.js";
+
+// Visual report
+export {
+  type DrawOptions,
+  drawNetworkSvg,
+  findProfilePath,
+  REPORT_CAUTION,
+  type ReportOptions,
+  renderReportHtml,
+} from "./output/report/index.js";
