@@ -70,16 +70,31 @@ export interface BlockLuFactorization {
  */
 export function analyzeBlockPattern(pattern: BlockPattern): BlockLuStructure {
   const n = pattern.size;
-  const adjacency: Set<number>[] = [];
-  for (let i = 0; i < n; i++) adjacency.push(new Set(pattern.neighbours[i] ?? []));
-
+  // Adjacency as plain arrays with lazy deletion (entries of eliminated nodes are dropped when a
+  // list is next compacted); a stamp array dedupes without a Set.
+  const adjacency: number[][] = [];
+  for (let i = 0; i < n; i++) adjacency.push([...(pattern.neighbours[i] ?? [])]);
+  const eliminated = new Uint8Array(n);
+  const stamp = new Int32Array(n).fill(-1);
+  const degree = new Int32Array(n);
+  const compact = (node: number, mark: number): number[] => {
+    const list = adjacency[node] as number[];
+    let kept = 0;
+    for (let k = 0; k < list.length; k++) {
+      const other = list[k] as number;
+      if (eliminated[other] === 1 || other === node || stamp[other] === mark) continue;
+      stamp[other] = mark;
+      list[kept++] = other;
+    }
+    list.length = kept;
+    return list;
+  };
   // Binary heap of (degree, index) with lazy deletion: a popped entry whose degree is stale is
   // skipped. Ties go to the lowest index, so the ordering is deterministic.
-  const degree = new Int32Array(n);
-  const eliminated = new Uint8Array(n);
   const heap = new MinHeap();
+  let mark = 0;
   for (let i = 0; i < n; i++) {
-    degree[i] = adjacency[i]?.size ?? 0;
+    degree[i] = compact(i, mark++).length;
     heap.push(degree[i] as number, i);
   }
   const order = new Int32Array(n);
@@ -93,21 +108,22 @@ export function analyzeBlockPattern(pattern: BlockPattern): BlockLuStructure {
     }
     order[step] = pivot;
     eliminated[pivot] = 1;
-    const neighbours = [...(adjacency[pivot] as Set<number>)].sort((a, b) => a - b);
+    const neighbours = compact(pivot, mark++)
+      .slice()
+      .sort((a, b) => a - b);
     laterLists.push(neighbours);
     // Eliminating the pivot couples all its remaining neighbours pairwise (fill).
     for (const s of neighbours) {
-      const set = adjacency[s] as Set<number>;
-      set.delete(pivot);
+      const list = compact(s, mark); // stamps s's live neighbours with `mark`
       for (const t of neighbours) {
-        if (t !== s && !set.has(t)) {
-          set.add(t);
+        if (t !== s && stamp[t] !== mark) {
+          stamp[t] = mark;
+          list.push(t);
           fillBlocks++;
         }
       }
-    }
-    for (const s of neighbours) {
-      degree[s] = (adjacency[s] as Set<number>).size;
+      mark++;
+      degree[s] = list.length;
       heap.push(degree[s] as number, s);
     }
   }
@@ -116,24 +132,10 @@ export function analyzeBlockPattern(pattern: BlockPattern): BlockLuStructure {
   const position = new Int32Array(n);
   for (let step = 0; step < n; step++) position[order[step] as number] = step;
 
-  // Index every stored block: diagonal blocks first (index = row), then each (row, col) pair of
-  // the filled pattern. Key (row, col) -> index in a Map keyed by row * n + col.
-  const index = new Map<number, number>();
-  let blockCount = n;
-  const keyOf = (row: number, column: number) => row * n + column;
-  for (let step = 0; step < n; step++) {
-    const pivot = order[step] as number;
-    for (const s of laterLists[step] as number[]) {
-      if (!index.has(keyOf(s, pivot))) index.set(keyOf(s, pivot), blockCount++);
-      if (!index.has(keyOf(pivot, s))) index.set(keyOf(pivot, s), blockCount++);
-    }
-  }
-  const lookup = (row: number, column: number): number => {
-    if (row === column) return row;
-    const found = index.get(keyOf(row, column));
-    return found === undefined ? -1 : found;
-  };
-
+  // Block numbering: diagonal blocks first (index = row); then, for the k-th later neighbour s
+  // of each step's pivot, block (s, pivot) at n + 2k and block (pivot, s) at n + 2k + 1. Every
+  // off-diagonal pair of the filled pattern belongs to exactly one step: the one that eliminates
+  // the first of its two rows.
   const laterStart = new Int32Array(n + 1);
   const updateStart = new Int32Array(n + 1);
   for (let step = 0; step < n; step++) {
@@ -142,21 +144,40 @@ export function analyzeBlockPattern(pattern: BlockPattern): BlockLuStructure {
     updateStart[step + 1] = (updateStart[step] as number) + count * count;
   }
   const laterNeighbours = new Int32Array(laterStart[n] as number);
+  for (let step = 0; step < n; step++)
+    laterNeighbours.set(laterLists[step] as number[], laterStart[step] as number);
+  const blockCount = n + 2 * (laterStart[n] as number);
+  const lookup = (row: number, column: number): number => {
+    if (row === column) return row;
+    const rowFirst = (position[row] as number) < (position[column] as number);
+    const first = rowFirst ? row : column;
+    const second = rowFirst ? column : row;
+    const step = position[first] as number;
+    // Binary search of the sorted later neighbours of `first`.
+    let lo = laterStart[step] as number;
+    let hi = (laterStart[step + 1] as number) - 1;
+    while (lo <= hi) {
+      const mid = (lo + hi) >> 1;
+      const value = laterNeighbours[mid] as number;
+      if (value === second) return n + 2 * mid + (rowFirst ? 1 : 0);
+      if (value < second) lo = mid + 1;
+      else hi = mid - 1;
+    }
+    return -1;
+  };
   const lowerBlock = new Int32Array(laterStart[n] as number);
   const upperBlock = new Int32Array(laterStart[n] as number);
   const updateBlock = new Int32Array(updateStart[n] as number);
   for (let step = 0; step < n; step++) {
-    const pivot = order[step] as number;
     const list = laterLists[step] as number[];
     const base = laterStart[step] as number;
     const updateBase = updateStart[step] as number;
     for (let a = 0; a < list.length; a++) {
       const s = list[a] as number;
-      laterNeighbours[base + a] = s;
-      lowerBlock[base + a] = lookup(s, pivot);
-      upperBlock[base + a] = lookup(pivot, s);
+      lowerBlock[base + a] = n + 2 * (base + a);
+      upperBlock[base + a] = n + 2 * (base + a) + 1;
       for (let b = 0; b < list.length; b++) {
-        updateBlock[updateBase + a * list.length + b] = lookup(s, list[b] as number);
+        updateBlock[updateBase + a * list.length + b] = a === b ? s : lookup(s, list[b] as number);
       }
     }
   }
