@@ -100,7 +100,9 @@ try {
     const start = performance.now();
     await page.goto(pathToFileURL(file).href, { waitUntil: "load" });
     timings.load.push(performance.now() - start);
-    await page.evaluate(() => new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(resolve))));
+    await page.evaluate(
+      () => new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(resolve))),
+    );
     timings.frame.push(performance.now() - start);
     drawnPipes = await page.locator("svg.mn-network g.mn-edge").count();
     svgSize = await page.evaluate(() => {
@@ -120,8 +122,12 @@ const rows = [
   ["Chromium: navigation to load event", timings.load],
   ["Chromium: navigation to first frame after load", timings.frame],
 ];
-console.log(`network: ${document.nodes.length} nodes, ${document.edges.length} pipes; status ${result.status}`);
-console.log(`report: ${(html.length / 1024).toFixed(0)} KiB of HTML, drawing ${svgSize}, ${drawnPipes} pipes drawn`);
+console.log(
+  `network: ${document.nodes.length} nodes, ${document.edges.length} pipes; status ${result.status}`,
+);
+console.log(
+  `report: ${(html.length / 1024).toFixed(0)} KiB of HTML, drawing ${svgSize}, ${drawnPipes} pipes drawn`,
+);
 console.log(`median of ${repeats} runs:`);
 console.log("| step | ms |");
 console.log("|---|---:|");

@@ -67,7 +67,8 @@ async function packageVersion(): Promise<string> {
         name?: string;
         version?: string;
       };
-      if (manifest.name === "machnet" && typeof manifest.version === "string") return manifest.version;
+      if (manifest.name === "machnet" && typeof manifest.version === "string")
+        return manifest.version;
     } catch {
       // No package.json here: look one level up.
     }
@@ -104,7 +105,8 @@ export async function runReport(args: ReportArguments, io: ReportIo): Promise<nu
       io.stderr(linesText(error.lines));
       return error.exitCode;
     }
-    const message = error instanceof InternalCheckError ? error.message : `internal error: ${describe(error)}`;
+    const message =
+      error instanceof InternalCheckError ? error.message : `internal error: ${describe(error)}`;
     io.stderr(linesText([`${args.file}: ${message}`]));
     return EXIT.internal;
   }
@@ -119,7 +121,9 @@ async function report(args: ReportArguments, io: ReportIo): Promise<number> {
   const format = checkChoice("--format", args.format, FORMATS, "html");
   const units: UnitSetName = checkChoice("--units", args.units, UNIT_SET_NAMES, "metric");
   if (format === "svg" && (args.to !== undefined || args.from !== undefined)) {
-    throw new CliError(["--to and --from choose the profile of the HTML report; --format svg draws the network only"]);
+    throw new CliError([
+      "--to and --from choose the profile of the HTML report; --format svg draws the network only",
+    ]);
   }
   const output = args.output ?? defaultReportPath(args.file, format);
   if (output === args.file) {
@@ -171,7 +175,10 @@ async function report(args: ReportArguments, io: ReportIo): Promise<number> {
 
   const stderr = resultNotes(result).map((note) => `note: ${args.file}: ${note}`);
   const reason = notASolutionReason(result);
-  if (reason !== undefined) stderr.push(`${args.file}: NOT A SOLUTION: ${reason} (the report is written, marked NOT A SOLUTION)`);
+  if (reason !== undefined)
+    stderr.push(
+      `${args.file}: NOT A SOLUTION: ${reason} (the report is written, marked NOT A SOLUTION)`,
+    );
   if (output === "-") {
     io.stdout(content);
   } else {
@@ -180,7 +187,9 @@ async function report(args: ReportArguments, io: ReportIo): Promise<number> {
     } catch (error) {
       const code = (error as { code?: unknown } | null)?.code;
       if (typeof code !== "string") throw error;
-      throw new CliError([`${output}: cannot write the report (${code}: ${(error as Error).message})`]);
+      throw new CliError([
+        `${output}: cannot write the report (${code}: ${(error as Error).message})`,
+      ]);
     }
     io.stdout(`wrote ${output}\n`);
   }

@@ -50,7 +50,9 @@ async function run(
 
 const WORKSHOP = exampleText("workshop-ring-main");
 const VERSION = (
-  JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")) as { version: string }
+  JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")) as {
+    version: string;
+  }
 ).version;
 
 describe("machnet report", () => {
@@ -82,18 +84,28 @@ describe("machnet report", () => {
   });
 
   it("writes the drawing alone as a standalone SVG with --format svg", async () => {
-    const result = await run({ file: "ring", format: "svg", colorBy: "flow", units: "us" }, { ring: WORKSHOP });
+    const result = await run(
+      { file: "ring", format: "svg", colorBy: "flow", units: "us" },
+      { ring: WORKSHOP },
+    );
     expect(result.code).toBe(0);
     const svg = result.written.get("ring.svg") ?? "";
-    expect(svg).toMatch(/^<\?xml version="1.0" encoding="UTF-8"\?>\n<svg xmlns="http:\/\/www.w3.org\/2000\/svg"/);
+    expect(svg).toMatch(
+      /^<\?xml version="1.0" encoding="UTF-8"\?>\n<svg xmlns="http:\/\/www.w3.org\/2000\/svg"/,
+    );
     expect(svg).toContain('data-color-by="flow"');
     expect(svg).toContain("mass flow [lb/h]");
   });
 
   it("refuses option values it does not know, naming the choices (exit 2)", async () => {
-    const color = await run({ file: "ring.json", colorBy: "temperature" }, { "ring.json": WORKSHOP });
+    const color = await run(
+      { file: "ring.json", colorBy: "temperature" },
+      { "ring.json": WORKSHOP },
+    );
     expect(color.code).toBe(2);
-    expect(color.stderr).toBe('--color: must be one of mach, pressure, velocity, flow (got "temperature")\n');
+    expect(color.stderr).toBe(
+      '--color: must be one of mach, pressure, velocity, flow (got "temperature")\n',
+    );
     const units = await run({ file: "ring.json", units: "imperial" }, { "ring.json": WORKSHOP });
     expect(units.stderr).toBe('--units: must be one of si, metric, us (got "imperial")\n');
     expect(color.written.size + units.written.size).toBe(0);
@@ -113,7 +125,9 @@ describe("machnet report", () => {
   it("reports an unknown profile node (exit 2)", async () => {
     const result = await run({ file: "ring.json", to: "CNC" }, { "ring.json": WORKSHOP });
     expect(result.code).toBe(2);
-    expect(result.stderr).toMatch(/^ring\.json: --to: no node "CNC" in the network; nodes are R-101, RA/);
+    expect(result.stderr).toMatch(
+      /^ring\.json: --to: no node "CNC" in the network; nodes are R-101, RA/,
+    );
     const from = await run({ file: "ring.json", from: "R-1" }, { "ring.json": WORKSHOP });
     expect(from.stderr).toMatch(/^ring\.json: --from: no node "R-1"/);
   });
@@ -125,7 +139,9 @@ describe("machnet report", () => {
         { id: "REC", kind: "reservoir", pressure: "3 bar(g)", temperature: "20 degC" },
         { id: "TOOL", kind: "junction", demand: "1 kg/s" },
       ],
-      edges: [{ id: "THIN", kind: "pipe", from: "REC", to: "TOOL", length: "100 m", diameter: "10 mm" }],
+      edges: [
+        { id: "THIN", kind: "pipe", from: "REC", to: "TOOL", length: "100 m", diameter: "10 mm" },
+      ],
     };
     const result = await run({ file: "thin.json" }, { "thin.json": JSON.stringify(document) });
     expect(result.code).toBe(1);
@@ -136,7 +152,9 @@ describe("machnet report", () => {
   it("refuses to write over the input file", async () => {
     const result = await run({ file: "ring.json", output: "ring.json" }, { "ring.json": WORKSHOP });
     expect(result.code).toBe(2);
-    expect(result.stderr).toBe("ring.json: the report would replace the input file; give --output\n");
+    expect(result.stderr).toBe(
+      "ring.json: the report would replace the input file; give --output\n",
+    );
   });
 
   it("names the output file it cannot write (exit 2), and calls anything else internal (exit 3)", async () => {

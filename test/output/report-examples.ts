@@ -50,12 +50,13 @@ export function example(name: ExampleName): { document: CheckedDocument; result:
 /** The attributes of an opening tag. */
 export function attributes(tag: string): Record<string, string> {
   const found: Record<string, string> = {};
-  for (const match of tag.matchAll(/([\w:-]+)="([^"]*)"/g)) found[match[1] as string] = match[2] as string;
+  for (const match of tag.matchAll(/([\w:-]+)="([^"]*)"/g))
+    found[match[1] as string] = match[2] as string;
   return found;
 }
 
 /** Undo the five entities of the report's escaping. */
-export function unescape(text: string): string {
+export function unescapeMarkup(text: string): string {
   return text
     .replace(/&lt;/g, "<")
     .replace(/&gt;/g, ">")
@@ -72,7 +73,9 @@ export interface DrawnElement {
 
 /** The pipes (`kind` "edge") or nodes of a drawing, in drawing order. */
 export function drawnElements(svg: string, kind: "edge" | "node"): DrawnElement[] {
-  const starts = [...svg.matchAll(new RegExp(`<g class="mn-${kind}[ "]`, "g"))].map((match) => match.index);
+  const starts = [...svg.matchAll(new RegExp(`<g class="mn-${kind}[ "]`, "g"))].map(
+    (match) => match.index,
+  );
   return starts.map((start, index) => {
     const markup = svg.slice(start, starts[index + 1] ?? svg.length);
     const end = markup.indexOf(">");
@@ -81,7 +84,10 @@ export function drawnElements(svg: string, kind: "edge" | "node"): DrawnElement[
 }
 
 /** The attributes of the first tag in `markup` with this class. */
-export function tagWithClass(markup: string, className: string): Record<string, string> | undefined {
+export function tagWithClass(
+  markup: string,
+  className: string,
+): Record<string, string> | undefined {
   const match = markup.match(new RegExp(`<[a-z]+ class="${className}"[^>]*>`));
   return match ? attributes(match[0]) : undefined;
 }

@@ -17,7 +17,9 @@ const TOO_MUCH = {
     { id: "REC", kind: "reservoir", pressure: "3 bar(g)", temperature: "20 degC" },
     { id: "TOOL", kind: "junction", demand: "1 kg/s" },
   ],
-  edges: [{ id: "THIN", kind: "pipe", from: "REC", to: "TOOL", length: "100 m", diameter: "10 mm" }],
+  edges: [
+    { id: "THIN", kind: "pipe", from: "REC", to: "TOOL", length: "100 m", diameter: "10 mm" },
+  ],
 };
 
 function report(name: (typeof EXAMPLE_NAMES)[number]): string {
@@ -51,7 +53,8 @@ describe("renderReportHtml", () => {
       expect(html.startsWith("<!DOCTYPE html>\n")).toBe(true);
       expect(html).toContain('<svg class="mn-network"');
       expect(html.match(/<svg class="mn-chart /g)).toHaveLength(2);
-      for (const edge of json.edges) expect(html).toContain(`<th scope="row" class="mn-left">${edge.id}</th>`);
+      for (const edge of json.edges)
+        expect(html).toContain(`<th scope="row" class="mn-left">${edge.id}</th>`);
       expect(html).toContain(`<caption>Nodes</caption>`);
       expect(html).toContain(`<caption>Edges</caption>`);
       expect(html).toContain(`<caption>Pipes as given</caption>`);
@@ -73,15 +76,23 @@ describe("renderReportHtml", () => {
   it("lists the design-check warnings of the vent header", () => {
     // README: the warnings name only TAIL-101: choked, Mach above 0.7, rho v^2 above 200000 Pa.
     const html = report("vent-collection-header");
-    const rows = [...html.matchAll(/<tr><th scope="row" class="mn-left">([\w-]+)<\/th><td class="mn-left">([^<]*)<\/td>/g)]
-      .filter((match) => ["choked", "limit-mach", "limit-momentum-flux", "limit-velocity"].includes(match[1] ?? ""))
+    const rows = [
+      ...html.matchAll(
+        /<tr><th scope="row" class="mn-left">([\w-]+)<\/th><td class="mn-left">([^<]*)<\/td>/g,
+      ),
+    ]
+      .filter((match) =>
+        ["choked", "limit-mach", "limit-momentum-flux", "limit-velocity"].includes(match[1] ?? ""),
+      )
       .map((match) => [match[1], match[2]]);
     expect(rows).toEqual([
       ["choked", "pipe TAIL-101"],
       ["limit-mach", "pipe TAIL-101"],
       ["limit-momentum-flux", "pipe TAIL-101"],
     ]);
-    expect(html).toContain('<tr class="mn-row-choked"><th scope="row" class="mn-left">TAIL-101</th>');
+    expect(html).toContain(
+      '<tr class="mn-row-choked"><th scope="row" class="mn-left">TAIL-101</th>',
+    );
   });
 
   it("says there are no warnings when there are none", () => {
@@ -93,7 +104,9 @@ describe("renderReportHtml", () => {
     const html = renderReportHtml(document, result);
     expect(html).toContain("<dt>status</dt><dd>converged</dd>");
     expect(html).toContain(`<dt>iterations</dt><dd>${result.iterations}</dd>`);
-    expect(html).toContain(`<dt>largest scaled residual</dt><dd>${result.residual.toExponential(2)}</dd>`);
+    expect(html).toContain(
+      `<dt>largest scaled residual</dt><dd>${result.residual.toExponential(2)}</dd>`,
+    );
   });
 
   it("marks a result that is not a solution, at the top and on the drawing, and still draws it", () => {
@@ -101,7 +114,9 @@ describe("renderReportHtml", () => {
     expect(result.converged).toBe(false);
     const html = renderReportHtml(document, result);
     expect(html).toMatch(/<title>NOT A SOLUTION: /);
-    const banner = html.indexOf('<div class="mn-not-solution" role="alert"><strong>NOT A SOLUTION</strong>');
+    const banner = html.indexOf(
+      '<div class="mn-not-solution" role="alert"><strong>NOT A SOLUTION</strong>',
+    );
     expect(banner).toBeGreaterThan(0);
     expect(banner).toBeLessThan(html.indexOf('<section id="summary">'));
     expect(html).toContain('<g class="mn-not-a-solution">');
@@ -133,7 +148,16 @@ describe("renderReportHtml", () => {
         { id: "REC", kind: "reservoir", pressure: "7 bar(g)", temperature: "20 degC" },
         { id: "<T&1>", kind: "junction", demand: "100 kg/h" },
       ],
-      edges: [{ id: "</script>", kind: "pipe", from: "REC", to: "<T&1>", length: "20 m", diameter: "40 mm" }],
+      edges: [
+        {
+          id: "</script>",
+          kind: "pipe",
+          from: "REC",
+          to: "<T&1>",
+          length: "20 m",
+          diameter: "40 mm",
+        },
+      ],
     });
     const html = renderReportHtml(document, result, { sourceName: "<in>.json" });
     expect(html).not.toContain("<b>");

@@ -9,7 +9,10 @@ import { profileChartsSvg } from "../../src/output/report/profile-svg.js";
 import type { EdgeResult } from "../../src/results/result-types.js";
 import { example, exampleJson } from "./report-examples.js";
 
-function pathOf(name: Parameters<typeof example>[0], options: { to?: string; from?: string } = {}): ProfilePath {
+function pathOf(
+  name: Parameters<typeof example>[0],
+  options: { to?: string; from?: string } = {},
+): ProfilePath {
   const { document, result } = example(name);
   const found = findProfilePath(document, result, options);
   if (!found.ok) throw new Error(found.message);
@@ -30,7 +33,12 @@ describe("findProfilePath", () => {
     // which RING-AB feeds from the feed tee RA.
     const path = pathOf("workshop-ring-main");
     expect(path.nodes).toEqual(["R-101", "RA", "RB", "RC", "CNC-BAY"]);
-    expect(path.steps.map((step) => step.edgeId)).toEqual(["FEED", "RING-AB", "RING-BC", "DROP-CNC"]);
+    expect(path.steps.map((step) => step.edgeId)).toEqual([
+      "FEED",
+      "RING-AB",
+      "RING-BC",
+      "DROP-CNC",
+    ]);
     expect(path.followsFlow).toBe(true);
   });
 
@@ -39,7 +47,13 @@ describe("findProfilePath", () => {
     // outweigh RV-103 (0.45) at HDR-2; the stack discharges into the reservoir ATMOSPHERE.
     const path = pathOf("vent-collection-header");
     expect(path.nodes).toEqual(["RV-101", "LAT-101", "HDR-1", "HDR-2", "STACK-BASE", "ATMOSPHERE"]);
-    expect(path.steps.map((step) => step.edgeId)).toEqual(["TAIL-101", "LAT-101-RUN", "HDR-12", "HDR-STACK", "STACK"]);
+    expect(path.steps.map((step) => step.edgeId)).toEqual([
+      "TAIL-101",
+      "LAT-101-RUN",
+      "HDR-12",
+      "HDR-STACK",
+      "STACK",
+    ]);
   });
 
   it("follows a pipe against its declared direction when the flow runs that way", () => {
@@ -67,8 +81,12 @@ describe("findProfilePath", () => {
     const { document, result } = example("workshop-ring-main");
     const found = findProfilePath(document, result, { to: "CNC" });
     expect(found).toMatchObject({ ok: false, code: "unknown-node", option: "to" });
-    if (!found.ok) expect(found.message).toMatch(/^no node "CNC" in the network; nodes are R-101, RA, RB/);
-    expect(findProfilePath(document, result, { from: "RA", to: "RA" })).toMatchObject({ ok: false, code: "same-node" });
+    if (!found.ok)
+      expect(found.message).toMatch(/^no node "CNC" in the network; nodes are R-101, RA, RB/);
+    expect(findProfilePath(document, result, { from: "RA", to: "RA" })).toMatchObject({
+      ok: false,
+      code: "same-node",
+    });
   });
 });
 
@@ -100,7 +118,9 @@ describe("profilePoints", () => {
     expect(exit?.pressure).toBe(tail.outlet.pressure);
     expect(exit?.mach).toBe(tail.outlet.mach);
     const atmosphere = points[points.length - 1];
-    expect(atmosphere?.pressure).toBe(result.nodes.find((node) => node.id === "ATMOSPHERE")?.pressure);
+    expect(atmosphere?.pressure).toBe(
+      result.nodes.find((node) => node.id === "ATMOSPHERE")?.pressure,
+    );
   });
 
   it("puts interior points on the pipe's own Fanno line: their end reaches the outlet state", () => {
@@ -112,10 +132,19 @@ describe("profilePoints", () => {
       result.edges.forEach((edge, index) => {
         const input = document.edges[index];
         if (!input) throw new Error("edge without input");
-        const end = interiorState(edge, input.length, input.diameter, input.minorLoss, result.gas.heatCapacityRatio, 1);
+        const end = interiorState(
+          edge,
+          input.length,
+          input.diameter,
+          input.minorLoss,
+          result.gas.heatCapacityRatio,
+          1,
+        );
         expect(end, edge.id).toBeDefined();
         expect(Math.abs((end?.mach ?? 0) / edge.outlet.mach - 1), edge.id).toBeLessThan(1e-6);
-        expect(Math.abs((end?.pressure ?? 0) / edge.outlet.pressure - 1), edge.id).toBeLessThan(1e-6);
+        expect(Math.abs((end?.pressure ?? 0) / edge.outlet.pressure - 1), edge.id).toBeLessThan(
+          1e-6,
+        );
       });
     }
   });
@@ -138,8 +167,13 @@ describe("profileChartsSvg", () => {
   it("draws the Mach 1 choke limit on the vent path, where the tailpipe reaches it", () => {
     const { document, result } = example("vent-collection-header");
     const points = profilePoints(document, result, pathOf("vent-collection-header"));
-    const { mach, pressure } = profileChartsSvg(points, document, result, { units: "metric", standalone: true });
-    const limits = [...mach.matchAll(/class="mn-choke-limit" data-choke-limit="([^"]*)"/g)].map((match) => match[1]);
+    const { mach, pressure } = profileChartsSvg(points, document, result, {
+      units: "metric",
+      standalone: true,
+    });
+    const limits = [...mach.matchAll(/class="mn-choke-limit" data-choke-limit="([^"]*)"/g)].map(
+      (match) => match[1],
+    );
     // One limit segment per pipe of the path, all adiabatic: Mach 1.
     expect(limits).toEqual(["1", "1", "1", "1", "1"]);
     expect(mach).toContain("choke limit: Mach 1 (adiabatic)");
@@ -155,7 +189,10 @@ describe("profileChartsSvg", () => {
     const path = pathOf("nitrogen-tank-header");
     expect(path.steps[0]?.edgeId).toBe("RACK-RUN");
     const points = profilePoints(document, result, path);
-    const { mach, pressure } = profileChartsSvg(points, document, result, { units: "us", standalone: false });
+    const { mach, pressure } = profileChartsSvg(points, document, result, {
+      units: "us",
+      standalone: false,
+    });
     const limit = (1 / Math.sqrt(result.gas.heatCapacityRatio)).toFixed(3);
     // Mach on this path stays below 0.03: the limits are far above the scale and named in a note.
     expect(mach).toContain("choke limit above this scale");

@@ -5,6 +5,8 @@
  * marked, the legend carries the units, and user strings are escaped.
  */
 import { describe, expect, it } from "vitest";
+import { emberColor } from "../../src/output/report/color-scale.js";
+import { escapeMarkup } from "../../src/output/report/escape-markup.js";
 import { drawNetworkSvg } from "../../src/output/report/network-svg.js";
 import type { EdgeResult } from "../../src/results/result-types.js";
 import {
@@ -14,7 +16,7 @@ import {
   exampleJson,
   solved,
   tagWithClass,
-  unescape,
+  unescapeMarkup,
 } from "./report-examples.js";
 
 /**
@@ -47,7 +49,11 @@ const ANCHORS_OKLCH: [number, number, number][] = [
 ];
 
 function rgb(hex: string): [number, number, number] {
-  return [1, 3, 5].map((start) => Number.parseInt(hex.slice(start, start + 2), 16)) as [number, number, number];
+  return [1, 3, 5].map((start) => Number.parseInt(hex.slice(start, start + 2), 16)) as [
+    number,
+    number,
+    number,
+  ];
 }
 
 function expectedColor(position: number): string {
@@ -75,11 +81,9 @@ function oklabToSrgb(lightness: number, a: number, b: number): [number, number, 
     -1.2684380046 * l + 2.6097574011 * m - 0.3413193965 * s,
     -0.0041960863 * l - 0.7034186147 * m + 1.707614701 * s,
   ];
-  return linear.map((value) => (value <= 0.0031308 ? 12.92 * value : 1.055 * value ** (1 / 2.4) - 0.055)) as [
-    number,
-    number,
-    number,
-  ];
+  return linear.map((value) =>
+    value <= 0.0031308 ? 12.92 * value : 1.055 * value ** (1 / 2.4) - 0.055,
+  ) as [number, number, number];
 }
 
 /** sRGB (0-255) to OKLab, the inverse of the above (same source). */
@@ -118,7 +122,11 @@ describe("the ember colour scale", () => {
   it("its anchors are the documented OKLCH colours", () => {
     ANCHORS_OKLCH.forEach(([lightness, chroma, hue], index) => {
       const radians = (hue * Math.PI) / 180;
-      const expected = oklabToSrgb(lightness, chroma * Math.cos(radians), chroma * Math.sin(radians));
+      const expected = oklabToSrgb(
+        lightness,
+        chroma * Math.cos(radians),
+        chroma * Math.sin(radians),
+      );
       const actual = rgb(ANCHORS[index] as string);
       // Tolerance 2 of 255: 8-bit rounding (0.5) plus the OKLCH coordinates printed to 3 digits.
       expected.forEach((channel, which) => {
@@ -127,13 +135,25 @@ describe("the ember colour scale", () => {
     });
   });
 
+  it("gives the documented examples: emberColor(0.5) and escapeMarkup", () => {
+    expect(emberColor(0.5)).toBe(ANCHORS[4]);
+    expect(emberColor(0.5)).toBe("#d96e34");
+    expect(emberColor(Number.NaN)).toBe("#9aa0a6");
+    expect(escapeMarkup('<A&"B">')).toBe("&lt;A&amp;&quot;B&quot;&gt;");
+    expect(escapeMarkup("a\u0001b")).toBe("a\ufffdb");
+  });
+
   it("falls in lightness at every step, by near-equal perceptual steps", () => {
     const lab = ANCHORS.map((hex) => srgbToOklab(rgb(hex)));
     for (let index = 1; index < lab.length; index++) {
       const previous = lab[index - 1] as [number, number, number];
       const current = lab[index] as [number, number, number];
       expect(current[0]).toBeLessThan(previous[0] - 0.05);
-      const distance = Math.hypot(current[0] - previous[0], current[1] - previous[1], current[2] - previous[2]);
+      const distance = Math.hypot(
+        current[0] - previous[0],
+        current[1] - previous[1],
+        current[2] - previous[2],
+      );
       // Equal spacing by design (0.086); 0.08-0.093 allows for 8-bit rounding of the anchors.
       expect(distance).toBeGreaterThan(0.08);
       expect(distance).toBeLessThan(0.093);
@@ -147,11 +167,19 @@ describe("drawNetworkSvg on the example networks", () => {
       const { document, result } = example(name);
       const svg = drawNetworkSvg(document, result);
       const json = exampleJson(name);
-      const edges = drawnElements(svg, "edge").map((element) => unescape(element.attributes["data-id"] ?? ""));
-      const nodes = drawnElements(svg, "node").map((element) => unescape(element.attributes["data-id"] ?? ""));
+      const edges = drawnElements(svg, "edge").map((element) =>
+        unescapeMarkup(element.attributes["data-id"] ?? ""),
+      );
+      const nodes = drawnElements(svg, "node").map((element) =>
+        unescapeMarkup(element.attributes["data-id"] ?? ""),
+      );
       expect(edges).toEqual(json.edges.map((edge) => edge.id));
       expect(nodes).toEqual(json.nodes.map((node) => node.id));
-      expect(svg.startsWith('<?xml version="1.0" encoding="UTF-8"?>\n<svg xmlns="http://www.w3.org/2000/svg"')).toBe(true);
+      expect(
+        svg.startsWith(
+          '<?xml version="1.0" encoding="UTF-8"?>\n<svg xmlns="http://www.w3.org/2000/svg"',
+        ),
+      ).toBe(true);
       expect(svg.endsWith("</svg>")).toBe(true);
     });
 
@@ -192,7 +220,13 @@ describe("drawNetworkSvg on the example networks", () => {
         const node = json.nodes[index];
         const demand = result.nodes[index]?.demand ?? 0;
         const expected =
-          node?.kind === "reservoir" ? "reservoir" : demand > 0 ? "demand" : demand < 0 ? "injection" : "junction";
+          node?.kind === "reservoir"
+            ? "reservoir"
+            : demand > 0
+              ? "demand"
+              : demand < 0
+                ? "injection"
+                : "junction";
         expect(element.attributes["data-symbol"]).toBe(expected);
       });
     });
@@ -201,12 +235,15 @@ describe("drawNetworkSvg on the example networks", () => {
       const { document, result } = example(name);
       const svg = drawNetworkSvg(document, result, { units: "metric" });
       drawnElements(svg, "edge").forEach((element, index) => {
-        const title = unescape(element.markup.match(/<title>([^<]*)<\/title>/)?.[1] ?? "");
+        const title = unescapeMarkup(element.markup.match(/<title>([^<]*)<\/title>/)?.[1] ?? "");
         const edge = result.edges[index] as EdgeResult;
         expect(title.split("\n")[0]).toBe(`pipe ${edge.id}`);
         const flow = Number(title.match(/\nmass flow: (\S+) kg\/h/)?.[1]);
         // Five significant digits in the title.
-        expect(flow).toBeCloseTo(edge.massFlow * 3600, -Math.floor(Math.log10(Math.abs(edge.massFlow * 3600))) + 3);
+        expect(flow).toBeCloseTo(
+          edge.massFlow * 3600,
+          -Math.floor(Math.log10(Math.abs(edge.massFlow * 3600))) + 3,
+        );
       });
     });
   }
@@ -241,7 +278,10 @@ describe("drawNetworkSvg on the example networks", () => {
 
   it("writes the legend in the chosen units", () => {
     const { document, result } = example("workshop-ring-main");
-    const legend = (quantity: "mach" | "pressure" | "velocity" | "flow", units: "si" | "metric" | "us") => {
+    const legend = (
+      quantity: "mach" | "pressure" | "velocity" | "flow",
+      units: "si" | "metric" | "us",
+    ) => {
       const svg = drawNetworkSvg(document, result, { colorBy: quantity, units });
       return svg.slice(svg.indexOf('<g class="mn-legend"'), svg.indexOf('<g class="mn-drawing"'));
     };
@@ -250,7 +290,9 @@ describe("drawNetworkSvg on the example networks", () => {
     expect(legend("pressure", "metric")).toContain("mean static pressure in the pipe [bar(a)]");
     expect(legend("pressure", "us")).toContain("mean static pressure in the pipe [psia]");
     expect(legend("flow", "metric")).toContain("mass flow [kg/h]");
-    expect(legend("mach", "us")).toContain("largest Mach number in the pipe (square-root scale) [-]");
+    expect(legend("mach", "us")).toContain(
+      "largest Mach number in the pipe (square-root scale) [-]",
+    );
     expect(legend("mach", "us")).toContain("Line width by mass flow [lb/h]");
     // The Mach design limit of the workshop (the default 0.5, docs/model.md) is marked.
     expect(legend("mach", "metric")).toContain(">limit 0.500<");
@@ -259,10 +301,14 @@ describe("drawNetworkSvg on the example networks", () => {
   it("puts velocity ticks inside the range of the pipes' velocities", () => {
     const { document, result } = example("workshop-ring-main");
     const svg = drawNetworkSvg(document, result, { colorBy: "velocity", units: "si" });
-    const largest = Math.max(...result.edges.map((edge) => Math.max(edge.inlet.velocity, edge.outlet.velocity)));
-    const ticks = [...svg.matchAll(/<text class="mn-tick" x="[^"]*" y="[^"]*" text-anchor="middle">([^<]*)<\/text>/g)].map(
-      (match) => Number(match[1]),
+    const largest = Math.max(
+      ...result.edges.map((edge) => Math.max(edge.inlet.velocity, edge.outlet.velocity)),
     );
+    const ticks = [
+      ...svg.matchAll(
+        /<text class="mn-tick" x="[^"]*" y="[^"]*" text-anchor="middle">([^<]*)<\/text>/g,
+      ),
+    ].map((match) => Number(match[1]));
     expect(ticks.length).toBeGreaterThanOrEqual(3);
     expect(ticks[0]).toBe(0);
     for (const tick of ticks) expect(tick).toBeLessThanOrEqual(largest);
@@ -277,17 +323,20 @@ describe("drawNetworkSvg on the example networks", () => {
         { id: "REC", kind: "reservoir", pressure: "7 bar(g)", temperature: "20 degC" },
         { id, kind: "junction", demand: "100 kg/h" },
       ],
-      edges: [{ id: `P<1>&"2"`, kind: "pipe", from: "REC", to: id, length: "20 m", diameter: "40 mm" }],
+      edges: [
+        { id: `P<1>&"2"`, kind: "pipe", from: "REC", to: id, length: "20 m", diameter: "40 mm" },
+      ],
     });
     const svg = drawNetworkSvg(document, result);
     expect(svg).not.toContain(id);
     expect(svg).not.toContain("<script");
     expect(svg).toContain("A&amp;&lt;&quot;1&#39;&gt;");
     expect(svg).toContain("P&lt;1&gt;&amp;&quot;2&quot;");
-    expect(drawnElements(svg, "node").map((element) => unescape(element.attributes["data-id"] ?? ""))).toEqual([
-      "REC",
-      id,
-    ]);
+    expect(
+      drawnElements(svg, "node").map((element) =>
+        unescapeMarkup(element.attributes["data-id"] ?? ""),
+      ),
+    ).toEqual(["REC", id]);
   });
 
   it("is deterministic: the same input gives the same text", () => {

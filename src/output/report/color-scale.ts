@@ -171,7 +171,8 @@ export function colorScaleFor(
     .filter((value) => Number.isFinite(value));
   const high = values.length > 0 ? Math.max(...values) : 0;
   const low = quantity === "pressure" ? (values.length > 0 ? Math.min(...values) : 0) : 0;
-  const kind = quantity === "pressure" ? "pressure" : quantity === "velocity" ? "velocity" : "massFlow";
+  const kind =
+    quantity === "pressure" ? "pressure" : quantity === "velocity" ? "velocity" : "massFlow";
   const unit = displayUnit(units, kind);
   const title =
     quantity === "pressure"

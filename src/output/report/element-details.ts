@@ -32,7 +32,11 @@ export function detailsText(heading: string, lines: readonly DetailLine[]): stri
  * @param input - its checked input (length, diameter, losses)
  * @param units - the unit set
  */
-export function edgeDetails(edge: EdgeResult, input: CheckedEdge | undefined, units: UnitSetName): DetailLine[] {
+export function edgeDetails(
+  edge: EdgeResult,
+  input: CheckedEdge | undefined,
+  units: UnitSetName,
+): DetailLine[] {
   const pressure = displayUnit(units, "pressure");
   const difference = displayUnit(units, "pressureDifference");
   const flow = displayUnit(units, "massFlow");
@@ -58,16 +62,34 @@ export function edgeDetails(edge: EdgeResult, input: CheckedEdge | undefined, un
     },
     { label: "mass flow", value: value(flow.fromSI(edge.massFlow), flow.label) },
     { label: "model", value: edge.model },
-    { label: "inlet pressure", value: value(pressure.fromSI(edge.inlet.pressure), pressure.label, PRESSURE_DIGITS) },
-    { label: "outlet pressure", value: value(pressure.fromSI(edge.outlet.pressure), pressure.label, PRESSURE_DIGITS) },
-    { label: "pressure drop", value: value(difference.fromSI(edge.pressureDrop), difference.label) },
+    {
+      label: "inlet pressure",
+      value: value(pressure.fromSI(edge.inlet.pressure), pressure.label, PRESSURE_DIGITS),
+    },
+    {
+      label: "outlet pressure",
+      value: value(pressure.fromSI(edge.outlet.pressure), pressure.label, PRESSURE_DIGITS),
+    },
+    {
+      label: "pressure drop",
+      value: value(difference.fromSI(edge.pressureDrop), difference.label),
+    },
     { label: "inlet Mach", value: formatNumber(edge.inlet.mach, 4) },
     { label: "outlet Mach", value: formatNumber(edge.outlet.mach, 4) },
     { label: "inlet velocity", value: value(velocity.fromSI(edge.inlet.velocity), velocity.label) },
-    { label: "outlet velocity", value: value(velocity.fromSI(edge.outlet.velocity), velocity.label) },
-    { label: "outlet temperature", value: value(temperature.fromSI(edge.outlet.temperature), temperature.label) },
+    {
+      label: "outlet velocity",
+      value: value(velocity.fromSI(edge.outlet.velocity), velocity.label),
+    },
+    {
+      label: "outlet temperature",
+      value: value(temperature.fromSI(edge.outlet.temperature), temperature.label),
+    },
     { label: "outlet density", value: value(density.fromSI(edge.outlet.density), density.label) },
-    { label: "ρv² (largest)", value: value(momentum.fromSI(edgeMomentumFlux(edge)), momentum.label) },
+    {
+      label: "ρv² (largest)",
+      value: value(momentum.fromSI(edgeMomentumFlux(edge)), momentum.label),
+    },
     { label: "choke ratio", value: formatNumber(edge.chokeRatio, 4) },
     { label: "capacity", value: value(flow.fromSI(edge.capacity), flow.label) },
     { label: "Reynolds", value: formatNumber(edge.reynolds, 4) },
@@ -104,9 +126,18 @@ export function nodeDetails(
   const symbol = nodeSymbolKind(input ?? { kind: node.kind, demand: node.demand });
   const lines: DetailLine[] = [
     { label: "kind", value: SYMBOL_NAMES[symbol] },
-    { label: "pressure", value: `${formatNumber(pressure.fromSI(node.pressure), PRESSURE_DIGITS)} ${pressure.label}` },
-    { label: "gauge pressure", value: `${formatNumber(gauge.value, PRESSURE_DIGITS)} ${gauge.label}` },
-    { label: "temperature", value: `${formatNumber(temperature.fromSI(node.temperature))} ${temperature.label}` },
+    {
+      label: "pressure",
+      value: `${formatNumber(pressure.fromSI(node.pressure), PRESSURE_DIGITS)} ${pressure.label}`,
+    },
+    {
+      label: "gauge pressure",
+      value: `${formatNumber(gauge.value, PRESSURE_DIGITS)} ${gauge.label}`,
+    },
+    {
+      label: "temperature",
+      value: `${formatNumber(temperature.fromSI(node.temperature))} ${temperature.label}`,
+    },
   ];
   if (node.demand !== 0 || node.kind === "junction") {
     const words =
@@ -117,7 +148,10 @@ export function nodeDetails(
         : node.demand < 0
           ? "injection"
           : "demand";
-    lines.push({ label: words, value: `${formatNumber(flow.fromSI(Math.abs(node.demand)))} ${flow.label}` });
+    lines.push({
+      label: words,
+      value: `${formatNumber(flow.fromSI(Math.abs(node.demand)))} ${flow.label}`,
+    });
   }
   return lines;
 }

@@ -7,12 +7,7 @@
 import { Graph, layout } from "@dagrejs/dagre";
 import type { CheckedDocument } from "../../input/document-types.js";
 import type { NetworkResult } from "../../results/result-types.js";
-import {
-  type NodeSymbolKind,
-  nodeSymbolKind,
-  SYMBOL_RADIUS,
-  SYMBOL_SIZE,
-} from "./node-symbols.js";
+import { type NodeSymbolKind, nodeSymbolKind, SYMBOL_RADIUS, SYMBOL_SIZE } from "./node-symbols.js";
 
 /** A point of the drawing [px]. */
 export interface Point {
@@ -111,7 +106,8 @@ export function layoutNetwork(
     const from = indexOf.get(edge.from) ?? 0;
     const to = indexOf.get(edge.to) ?? 0;
     const flow = result.edges[index]?.massFlow ?? 0;
-    const direction = flow < 0 ? { upstream: to, downstream: from } : { upstream: from, downstream: to };
+    const direction =
+      flow < 0 ? { upstream: to, downstream: from } : { upstream: from, downstream: to };
     directions.push(direction);
     const lines = edgeLabels[index] ?? [edge.id];
     const labelWidth = Math.max(...lines.map((line) => textWidth(line, "large"))) + 8;
@@ -168,7 +164,11 @@ export function layoutNetwork(
  * dagre ends an edge on the border of the node's box (symbol and labels); let it end on the
  * symbol instead: the inner points are kept, the ends move to the symbol's rim.
  */
-function clipToSymbols(points: readonly Point[], upstream: LaidOutNode, downstream: LaidOutNode): Point[] {
+function clipToSymbols(
+  points: readonly Point[],
+  upstream: LaidOutNode,
+  downstream: LaidOutNode,
+): Point[] {
   const inner = points.slice(1, -1);
   const first = inner[0] ?? { x: downstream.x, y: downstream.y };
   const last = inner[inner.length - 1] ?? { x: upstream.x, y: upstream.y };

@@ -46,16 +46,25 @@ function limitMarks(
   const limits = document.settings.limits;
   if (scale.quantity === "mach") {
     if (limits.maxMach !== undefined && limits.maxMach < 1) {
-      marks.push({ position: scale.position(limits.maxMach), label: `limit ${formatNumber(limits.maxMach, 3)}` });
+      marks.push({
+        position: scale.position(limits.maxMach),
+        label: `limit ${formatNumber(limits.maxMach, 3)}`,
+      });
     }
     if (result.edges.some((edge) => edge.model === "isothermal")) {
       const limit = 1 / Math.sqrt(result.gas.heatCapacityRatio);
-      marks.push({ position: scale.position(limit), label: `isothermal choke ${formatNumber(limit, 3)}` });
+      marks.push({
+        position: scale.position(limit),
+        label: `isothermal choke ${formatNumber(limit, 3)}`,
+      });
     }
   } else if (scale.quantity === "velocity" && limits.maxVelocity !== undefined) {
     const position = scale.position(limits.maxVelocity);
     if (scale.high >= limits.maxVelocity) {
-      marks.push({ position, label: `limit ${formatNumber(scale.display(limits.maxVelocity), 3)}` });
+      marks.push({
+        position,
+        label: `limit ${formatNumber(scale.display(limits.maxVelocity), 3)}`,
+      });
     }
   }
   return marks;
@@ -102,9 +111,14 @@ export function legendSvg(
 
   // Line widths.
   const flow = displayUnit(units, "massFlow");
-  const largest = Math.max(0, ...result.edges.map((edge) => Math.abs(edge.massFlow)).filter(Number.isFinite));
+  const largest = Math.max(
+    0,
+    ...result.edges.map((edge) => Math.abs(edge.massFlow)).filter(Number.isFinite),
+  );
   const widthY = 92;
-  parts.push(`<text class="mn-legend-title" x="${BAR_X}" y="${widthY + 4}">Line width by mass flow [${escapeMarkup(flow.label)}]:</text>`);
+  parts.push(
+    `<text class="mn-legend-title" x="${BAR_X}" y="${widthY + 4}">Line width by mass flow [${escapeMarkup(flow.label)}]:</text>`,
+  );
   const samples = largest > 0 ? [1, 0.25, 0.04] : [0];
   samples.forEach((fraction, index) => {
     const x = 290 + index * 130;

@@ -45,7 +45,8 @@ const BANNER_HEIGHT = 34;
 /** The value shown in a pipe's label, with its unit. */
 function labelValue(quantity: ColorQuantity, value: number, units: UnitSetName): string {
   if (quantity === "mach") return `Ma ${formatNumber(value, 3)}`;
-  const kind = quantity === "pressure" ? "pressure" : quantity === "velocity" ? "velocity" : "massFlow";
+  const kind =
+    quantity === "pressure" ? "pressure" : quantity === "velocity" ? "velocity" : "massFlow";
   const unit = displayUnit(units, kind);
   return `${formatNumber(unit.fromSI(value), quantity === "pressure" ? 5 : 3)} ${unit.label}`;
 }
@@ -99,14 +100,18 @@ export function networkSvgMarkup(
   const values = result.edges.map((edge) => edgeColorValue(edge, quantity));
 
   const nodeLabels = result.nodes.map(
-    (node) => [node.id, `${formatNumber(pressure.fromSI(node.pressure), 5)} ${pressure.label}`] as const,
+    (node) =>
+      [node.id, `${formatNumber(pressure.fromSI(node.pressure), 5)} ${pressure.label}`] as const,
   );
   const edgeLabels = result.edges.map((edge, index) => {
     const lines = [edge.id, labelValue(quantity, values[index] as number, units)];
     if (edge.choked) lines.push("CHOKED");
     return lines;
   });
-  const largest = Math.max(0, ...result.edges.map((edge) => Math.abs(edge.massFlow)).filter(Number.isFinite));
+  const largest = Math.max(
+    0,
+    ...result.edges.map((edge) => Math.abs(edge.massFlow)).filter(Number.isFinite),
+  );
   const lineWidths = result.edges.map((edge) => pipeWidth(edge.massFlow, largest));
   const clearances = result.edges.map(
     (edge, index) => 0.5 * ((lineWidths[index] as number) + (edge.choked ? CHOKED_CASING : CASING)),
@@ -159,9 +164,15 @@ export function networkSvgMarkup(
       `<polyline class="mn-casing" points="${points}" fill="none" stroke="${INK}" stroke-width="${c(lineWidth + (edge.choked ? CHOKED_CASING : CASING))}" stroke-linejoin="round" stroke-linecap="butt"/>`,
       `<polyline class="mn-pipe" points="${points}" fill="none" stroke="${color}" stroke-width="${c(lineWidth)}" stroke-linejoin="round" stroke-linecap="butt"/>`,
     );
-    if (edge.choked) parts.push(chokedOverlay(laid.points, lineWidth), chokeBowtie(laid.points, lineWidth));
+    if (edge.choked)
+      parts.push(chokedOverlay(laid.points, lineWidth), chokeBowtie(laid.points, lineWidth));
     if (edge.massFlow !== 0) {
-      const label = { x: laid.labelX, y: laid.labelY, width: laid.labelWidth, height: laid.labelHeight };
+      const label = {
+        x: laid.labelX,
+        y: laid.labelY,
+        width: laid.labelWidth,
+        height: laid.labelHeight,
+      };
       parts.push(arrowHead(laid.points, lineWidth, label));
     }
     parts.push(edgeLabelSvg(laid, edgeLabels[laid.index] ?? [edge.id]), "</g>");

@@ -3,8 +3,8 @@
  * marks of a choked pipe (a dashed white core inside a heavy casing, and a bow-tie at its exit).
  */
 
-import { INK } from "./node-symbols.js";
 import type { Point } from "./network-layout.js";
+import { INK } from "./node-symbols.js";
 import { coordinate as c, pointsAttribute } from "./svg-format.js";
 
 /** Line width of a pipe with no flow, and the extra width of the largest flow [px]. */
@@ -24,7 +24,10 @@ export function pipeWidth(massFlow: number, largest: number): number {
 }
 
 /** The point at a fraction of a polyline's length, with the unit direction there. */
-export function pointAlong(points: readonly Point[], fraction: number): { point: Point; dx: number; dy: number } {
+export function pointAlong(
+  points: readonly Point[],
+  fraction: number,
+): { point: Point; dx: number; dy: number } {
   const lengths: number[] = [];
   let total = 0;
   for (let index = 1; index < points.length; index++) {
@@ -77,8 +80,9 @@ export function arrowHead(points: readonly Point[], width: number, avoid?: Box):
     Math.abs(at.x - avoid.x) > 0.5 * avoid.width + reach ||
     Math.abs(at.y - avoid.y) > 0.5 * avoid.height + reach;
   const place =
-    ARROW_PLACES.map((fraction) => pointAlong(points, fraction)).find((candidate) => clear(candidate.point)) ??
-    pointAlong(points, 0.5);
+    ARROW_PLACES.map((fraction) => pointAlong(points, fraction)).find((candidate) =>
+      clear(candidate.point),
+    ) ?? pointAlong(points, 0.5);
   const { point, dx, dy } = place;
   const tip = { x: point.x + 0.5 * length * dx, y: point.y + 0.5 * length * dy };
   const baseX = point.x - 0.5 * length * dx;

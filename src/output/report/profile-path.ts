@@ -94,7 +94,12 @@ export function findProfilePath(
     }
   }
   if (options.to !== undefined && options.to === options.from) {
-    return { ok: false, code: "same-node", option: "from", message: `the start and the end of the profile are the same node "${options.to}"` };
+    return {
+      ok: false,
+      code: "same-node",
+      option: "from",
+      message: `the start and the end of the profile are the same node "${options.to}"`,
+    };
   }
 
   const flowEdges: FlowEdge[] = [];
@@ -152,7 +157,12 @@ export function findProfilePath(
   }
   const shortest = fewestPipes(start, target, document);
   if (!shortest) {
-    return { ok: false, code: "no-path", option: "from", message: `no pipes connect "${start}" and "${target}"` };
+    return {
+      ok: false,
+      code: "no-path",
+      option: "from",
+      message: `no pipes connect "${start}" and "${target}"`,
+    };
   }
   return { ok: true, path: pathOf(shortest, document, result, false) };
 }
@@ -205,7 +215,10 @@ function walkUpstream(
 function fewestPipes(start: string, target: string, document: CheckedDocument): Walk | undefined {
   const neighbours = new Map<string, { node: string; edge: number }[]>();
   document.edges.forEach((edge, index) => {
-    neighbours.set(edge.from, [...(neighbours.get(edge.from) ?? []), { node: edge.to, edge: index }]);
+    neighbours.set(edge.from, [
+      ...(neighbours.get(edge.from) ?? []),
+      { node: edge.to, edge: index },
+    ]);
     neighbours.set(edge.to, [...(neighbours.get(edge.to) ?? []), { node: edge.from, edge: index }]);
   });
   const cameFrom = new Map<string, { node: string; edge: number }>();
@@ -233,14 +246,29 @@ function fewestPipes(start: string, target: string, document: CheckedDocument): 
   return { nodes: nodes.reverse(), edges: edges.reverse() };
 }
 
-function pathOf(walk: Walk, document: CheckedDocument, result: NetworkResult, followsFlow: boolean): ProfilePath {
+function pathOf(
+  walk: Walk,
+  document: CheckedDocument,
+  result: NetworkResult,
+  followsFlow: boolean,
+): ProfilePath {
   const steps = walk.edges.map((edgeIndex, position): ProfileStep => {
     const edge = document.edges[edgeIndex];
     const start = walk.nodes[position] as string;
     const end = walk.nodes[position + 1] as string;
     const flow = result.edges[edgeIndex]?.massFlow ?? 0;
     const upstream = flow < 0 ? edge?.to : edge?.from;
-    return { edgeIndex, edgeId: edge?.id ?? String(edgeIndex), start, end, alongFlow: upstream === start };
+    return {
+      edgeIndex,
+      edgeId: edge?.id ?? String(edgeIndex),
+      start,
+      end,
+      alongFlow: upstream === start,
+    };
   });
-  return { nodes: walk.nodes, steps, followsFlow: followsFlow && steps.every((step) => step.alongFlow) };
+  return {
+    nodes: walk.nodes,
+    steps,
+    followsFlow: followsFlow && steps.every((step) => step.alongFlow),
+  };
 }

@@ -90,10 +90,17 @@ export function interiorState(
   try {
     if (edge.model === "isothermal") {
       if (!(inletMach <= 1 / Math.sqrt(gamma))) return undefined;
-      const left = Math.max(0, isothermalFrictionParameter(inletMach, gamma) - fraction * parameter);
+      const left = Math.max(
+        0,
+        isothermalFrictionParameter(inletMach, gamma) - fraction * parameter,
+      );
       const mach = machFromIsothermalFrictionParameter(left, gamma);
       const pressure = (edge.inlet.pressure * inletMach) / mach;
-      return { mach, pressure, stagnationPressure: pressure / isentropicPressureRatio(mach, gamma) };
+      return {
+        mach,
+        pressure,
+        stagnationPressure: pressure / isentropicPressureRatio(mach, gamma),
+      };
     }
     if (!(inletMach <= 1)) return undefined;
     const left = Math.max(0, fannoParameter(inletMach, gamma) - fraction * parameter);
@@ -101,7 +108,8 @@ export function interiorState(
     return {
       mach,
       pressure:
-        (edge.inlet.pressure * fannoPressureRatio(mach, gamma)) / fannoPressureRatio(inletMach, gamma),
+        (edge.inlet.pressure * fannoPressureRatio(mach, gamma)) /
+        fannoPressureRatio(inletMach, gamma),
       stagnationPressure:
         (edge.inlet.stagnationPressure * fannoStagnationPressureRatio(mach, gamma)) /
         fannoStagnationPressureRatio(inletMach, gamma),
@@ -132,7 +140,15 @@ export function profilePoints(
   const pressureOf = new Map(result.nodes.map((node) => [node.id, node.pressure]));
   const nodePoint = (id: string, distance: number): ProfilePoint => {
     const pressure = pressureOf.get(id) ?? Number.NaN;
-    return { distance, pressure, stagnationPressure: pressure, mach: Number.NaN, place: "node", id, chokeLimit: Number.NaN };
+    return {
+      distance,
+      pressure,
+      stagnationPressure: pressure,
+      mach: Number.NaN,
+      place: "node",
+      id,
+      chokeLimit: Number.NaN,
+    };
   };
   const first = path.nodes[0];
   const points: ProfilePoint[] = first === undefined ? [] : [nodePoint(first, 0)];
@@ -144,7 +160,11 @@ export function profilePoints(
     const chokeLimit = edge.model === "isothermal" ? 1 / Math.sqrt(gamma) : 1;
     const length = input.length;
     const along: ProfilePoint[] = [];
-    const end = (state: EdgeResult["inlet"], place: "entry" | "exit", distance: number): ProfilePoint => ({
+    const end = (
+      state: EdgeResult["inlet"],
+      place: "entry" | "exit",
+      distance: number,
+    ): ProfilePoint => ({
       distance,
       pressure: state.pressure,
       stagnationPressure: state.stagnationPressure,
@@ -162,9 +182,17 @@ export function profilePoints(
       inside.push({ distance, ...state, place: "interior", id: edge.id, chokeLimit });
     }
     if (step.alongFlow) {
-      along.push(end(edge.inlet, "entry", start), ...inside, end(edge.outlet, "exit", start + length));
+      along.push(
+        end(edge.inlet, "entry", start),
+        ...inside,
+        end(edge.outlet, "exit", start + length),
+      );
     } else {
-      along.push(end(edge.outlet, "entry", start), ...inside.reverse(), end(edge.inlet, "exit", start + length));
+      along.push(
+        end(edge.outlet, "entry", start),
+        ...inside.reverse(),
+        end(edge.inlet, "exit", start + length),
+      );
     }
     points.push(...along);
     start += length;

@@ -10,7 +10,13 @@ import { formatNumber } from "../format-number.js";
 import { escapeMarkup } from "./escape-markup.js";
 import { INK } from "./node-symbols.js";
 import type { ProfilePoint } from "./profile-points.js";
-import { coordinate as c, niceCeiling, niceTicks, pointsAttribute, tickLabel } from "./svg-format.js";
+import {
+  coordinate as c,
+  niceCeiling,
+  niceTicks,
+  pointsAttribute,
+  tickLabel,
+} from "./svg-format.js";
 
 /** Size of one chart and its plot area [px]. */
 const WIDTH = 920;
@@ -62,7 +68,8 @@ function frame(
   standalone: boolean,
 ): { open: string[]; x: (value: number) => number; y: (value: number) => number } {
   const x = (value: number) => LEFT + ((value - xAxis.low) / (xAxis.high - xAxis.low)) * PLOT_WIDTH;
-  const y = (value: number) => TOP + PLOT_HEIGHT - ((value - yAxis.low) / (yAxis.high - yAxis.low)) * PLOT_HEIGHT;
+  const y = (value: number) =>
+    TOP + PLOT_HEIGHT - ((value - yAxis.low) / (yAxis.high - yAxis.low)) * PLOT_HEIGHT;
   const namespace = standalone ? ' xmlns="http://www.w3.org/2000/svg"' : "";
   const open = [
     `<svg${namespace} class="mn-chart mn-chart-${kind}" width="${WIDTH}" height="${HEIGHT}" viewBox="0 0 ${WIDTH} ${HEIGHT}" role="img" data-chart="${kind}">`,
@@ -102,13 +109,19 @@ const NAME_CHARACTER_WIDTH = 6.2;
  * of three rows where it does not overlap the one before; an id with no room is left out (its
  * node keeps its line, and its points their tooltips).
  */
-function nodeGuides(points: readonly ProfilePoint[], x: (value: number) => number, distance: (m: number) => number): string[] {
+function nodeGuides(
+  points: readonly ProfilePoint[],
+  x: (value: number) => number,
+  distance: (m: number) => number,
+): string[] {
   const parts: string[] = [];
   const rowEnds: number[] = new Array(NAME_ROWS).fill(Number.NEGATIVE_INFINITY);
   for (const point of points) {
     if (point.place !== "node") continue;
     const px = x(distance(point.distance));
-    parts.push(`<path class="mn-node-guide" d="M${c(px)} ${TOP}v${PLOT_HEIGHT}" stroke="#b8b3a6" stroke-width="1" stroke-dasharray="2 3"/>`);
+    parts.push(
+      `<path class="mn-node-guide" d="M${c(px)} ${TOP}v${PLOT_HEIGHT}" stroke="#b8b3a6" stroke-width="1" stroke-dasharray="2 3"/>`,
+    );
     const half = 0.5 * [...point.id].length * NAME_CHARACTER_WIDTH;
     // Keep the name inside the chart's width.
     const centre = Math.min(WIDTH - 2 - half, Math.max(2 + half, px));
@@ -190,12 +203,22 @@ export function profileChartsSvg(
   const xTitle = `distance along the path [${length.label}]`;
 
   // Pressure chart.
-  const pressures = points.flatMap((point) => [point.pressure, point.stagnationPressure]).filter(Number.isFinite);
+  const pressures = points
+    .flatMap((point) => [point.pressure, point.stagnationPressure])
+    .filter(Number.isFinite);
   const pLow = pressures.length > 0 ? pressure.fromSI(Math.min(...pressures)) : 0;
   const pHigh = pressures.length > 0 ? pressure.fromSI(Math.max(...pressures)) : 1;
   const pPad = (pHigh - pLow) * 0.06;
   const pAxis = axis(pLow - pPad, pHigh + pPad, 6);
-  const p = frame("pressure", "pressure along the path", xAxis, pAxis, xTitle, `pressure [${pressure.label}]`, options.standalone);
+  const p = frame(
+    "pressure",
+    "pressure along the path",
+    xAxis,
+    pAxis,
+    xTitle,
+    `pressure [${pressure.label}]`,
+    options.standalone,
+  );
   const py = (value: number) => p.y(pressure.fromSI(value));
   const pressureParts = [...p.open, ...nodeGuides(points, p.x, distance)];
   const finite = points.filter((point) => Number.isFinite(point.pressure));
@@ -218,7 +241,9 @@ export function profileChartsSvg(
   );
 
   // Mach chart.
-  const pipePoints = points.filter((point) => point.place !== "node" && Number.isFinite(point.mach));
+  const pipePoints = points.filter(
+    (point) => point.place !== "node" && Number.isFinite(point.mach),
+  );
   const largestMach = Math.max(0, ...pipePoints.map((point) => point.mach));
   const limits = [...new Set(pipePoints.map((point) => point.chokeLimit))].sort((a, b) => a - b);
   const smallestLimit = limits[0] ?? 1;
@@ -230,15 +255,29 @@ export function profileChartsSvg(
     : niceCeiling(Math.max(1.3 * largestMach, 1e-3));
   const mAxis = axis(0, top, 6);
   mAxis.low = 0;
-  const m = frame("mach", "Mach number along the path", xAxis, mAxis, xTitle, "Mach number [-]", options.standalone);
+  const m = frame(
+    "mach",
+    "Mach number along the path",
+    xAxis,
+    mAxis,
+    xTitle,
+    "Mach number [-]",
+    options.standalone,
+  );
   const machParts = [...m.open, ...nodeGuides(points, m.x, distance)];
   const gamma = result.gas.heatCapacityRatio;
-  const limitName = (limit: number) => (limit === 1 ? "Mach 1 (adiabatic)" : `1/√γ = ${formatNumber(limit, 3)} (isothermal, γ ${formatNumber(gamma, 4)})`);
+  const limitName = (limit: number) =>
+    limit === 1
+      ? "Mach 1 (adiabatic)"
+      : `1/√γ = ${formatNumber(limit, 3)} (isothermal, γ ${formatNumber(gamma, 4)})`;
   if (limitOnScale) {
     // One dashed segment per pipe, at that pipe's limit.
     for (const point of pipePoints) {
       if (point.place !== "entry") continue;
-      const exit = pipePoints.find((other) => other.place === "exit" && other.id === point.id && other.distance >= point.distance);
+      const exit = pipePoints.find(
+        (other) =>
+          other.place === "exit" && other.id === point.id && other.distance >= point.distance,
+      );
       const x0 = m.x(distance(point.distance));
       const x1 = m.x(distance(exit?.distance ?? point.distance));
       machParts.push(

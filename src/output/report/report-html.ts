@@ -54,19 +54,32 @@ function section(id: string, title: string, body: string): string {
 }
 
 /** Headline figures: lowest pressure, fastest pipe, choked pipes, throughput. */
-function keyFigures(document: CheckedDocument, result: NetworkResult, units: UnitSetName): [string, string][] {
+function keyFigures(
+  document: CheckedDocument,
+  result: NetworkResult,
+  units: UnitSetName,
+): [string, string][] {
   const pressure = displayUnit(units, "pressure");
   const velocity = displayUnit(units, "velocity");
   const flow = displayUnit(units, "massFlow");
   const entries: [string, string][] = [];
-  const junctions = result.nodes.filter((node) => node.kind === "junction" && Number.isFinite(node.pressure));
+  const junctions = result.nodes.filter(
+    (node) => node.kind === "junction" && Number.isFinite(node.pressure),
+  );
   const lowest = junctions.reduce<(typeof junctions)[number] | undefined>(
     (best, node) => (best === undefined || node.pressure < best.pressure ? node : best),
     undefined,
   );
-  if (lowest) entries.push(["lowest junction pressure", `${formatNumber(pressure.fromSI(lowest.pressure), 6)} ${pressure.label} at ${lowest.id}`]);
+  if (lowest)
+    entries.push([
+      "lowest junction pressure",
+      `${formatNumber(pressure.fromSI(lowest.pressure), 6)} ${pressure.label} at ${lowest.id}`,
+    ]);
   const fastest = result.edges.reduce<(typeof result.edges)[number] | undefined>(
-    (best, edge) => (best === undefined || edgeColorValue(edge, "mach") > edgeColorValue(best, "mach") ? edge : best),
+    (best, edge) =>
+      best === undefined || edgeColorValue(edge, "mach") > edgeColorValue(best, "mach")
+        ? edge
+        : best,
     undefined,
   );
   if (fastest) {
@@ -77,7 +90,10 @@ function keyFigures(document: CheckedDocument, result: NetworkResult, units: Uni
   }
   const choked = result.edges.filter((edge) => edge.choked).map((edge) => edge.id);
   entries.push(["choked pipes", choked.length === 0 ? "none" : choked.join(", ")]);
-  entries.push(["throughput", `${formatNumber(flow.fromSI(result.balance.throughput))} ${flow.label}`]);
+  entries.push([
+    "throughput",
+    `${formatNumber(flow.fromSI(result.balance.throughput))} ${flow.label}`,
+  ]);
   entries.push(["pipes, nodes", `${document.edges.length}, ${document.nodes.length}`]);
   return entries;
 }
@@ -96,7 +112,11 @@ function profileSection(
     if (options.profileTo !== undefined || options.profileFrom !== undefined) {
       throw new RangeError(`profile: ${found.message}`);
     }
-    return section("profile", "Profile", `<p class="mn-none">No profile: ${escapeMarkup(found.message)}.</p>`);
+    return section(
+      "profile",
+      "Profile",
+      `<p class="mn-none">No profile: ${escapeMarkup(found.message)}.</p>`,
+    );
   }
   const path: ProfilePath = found.path;
   const points = profilePoints(document, result, path);
@@ -117,8 +137,10 @@ function profileSection(
     options.profileTo === undefined
       ? "to the lowest-pressure node that gas flows into"
       : `to the chosen node ${options.profileTo}`;
-  const against = path.followsFlow ? "" : " Parts of the path run against the flow.";
-  const intro = `<p>From <strong>${escapeMarkup(first)}</strong> ${escapeMarkup(how)}, <strong>${escapeMarkup(last)}</strong>, following upstream the pipe that brings each node its largest inflow: ${path.steps.length} pipes, ${escapeMarkup(formatNumber(length.fromSI(total)))} ${escapeMarkup(length.label)}.${escapeMarkup(against)} Points inside each pipe from the ${result.edges.some((edge) => edge.model === "isothermal") ? "Fanno and isothermal" : "Fanno"} relations from its inlet state (minor losses spread evenly along the pipe); nodes are plenums, gas at rest.</p>`;
+  const rule = path.followsFlow
+    ? "following upstream the pipe that brings each node its largest inflow"
+    : "by the path with the fewest pipes, since the flow from the start does not reach the end; parts of it run against the flow";
+  const intro = `<p>From <strong>${escapeMarkup(first)}</strong> ${escapeMarkup(how)}, <strong>${escapeMarkup(last)}</strong>, ${escapeMarkup(rule)}: ${path.steps.length} pipes, ${escapeMarkup(formatNumber(length.fromSI(total)))} ${escapeMarkup(length.label)}. Points inside each pipe from the ${result.edges.some((edge) => edge.model === "isothermal") ? "Fanno and isothermal" : "Fanno"} relations from its inlet state (minor losses spread evenly along the pipe); nodes are plenums, gas at rest.</p>`;
   const routeHtml = `<p class="mn-route" data-path="${escapeMarkup(path.nodes.join(" "))}" data-pipes="${escapeMarkup(path.steps.map((step) => step.edgeId).join(" "))}">${route}</p>`;
   return section(
     "profile",
@@ -155,7 +177,12 @@ export function renderReportHtml(
     reason === undefined
       ? ""
       : `<div class="mn-not-solution" role="alert"><strong>${NOT_A_SOLUTION}</strong><span>${escapeMarkup(reason)}</span><span>The numbers below are the solver's last iterate: do not use them for design.</span></div>`;
-  const drawing = networkSvgMarkup(document, result, { colorBy, units, standalone: false, idPrefix: "mn-net" });
+  const drawing = networkSvgMarkup(document, result, {
+    colorBy,
+    units,
+    standalone: false,
+    idPrefix: "mn-net",
+  });
   const provenance: [string, string][] = [
     ["input file", options.sourceName ?? "(not given)"],
     ["SHA-256 of the input file", options.sourceHash ?? "(not given)"],
@@ -176,7 +203,11 @@ export function renderReportHtml(
     `<header><p class="mn-kicker">machnet report</p><h1>${escapeMarkup(name)}</h1>`,
     `<p class="mn-meta">${escapeMarkup(`${result.gas.name} · ${document.nodes.length} nodes · ${document.edges.length} pipes · units ${units} · input ${options.sourceName ?? "(not given)"} · machnet ${options.version ?? "(version not given)"}`)}</p></header>`,
     banner,
-    section("summary", "Summary", definitionListHtml("mn-key", keyFigures(document, result, units))),
+    section(
+      "summary",
+      "Summary",
+      definitionListHtml("mn-key", keyFigures(document, result, units)),
+    ),
     section(
       "network",
       "Network",

@@ -20,7 +20,8 @@ export function tableHtml(
 ): string {
   const header = table.columns
     .map((column) => {
-      const unit = column.unit === "" ? "" : `<span class="mn-unit">[${escapeMarkup(column.unit)}]</span>`;
+      const unit =
+        column.unit === "" ? "" : `<span class="mn-unit">[${escapeMarkup(column.unit)}]</span>`;
       return `<th scope="col" class="mn-${column.align}">${escapeMarkup(column.label)}${unit === "" ? "" : ` ${unit}`}</th>`;
     })
     .join("");
@@ -42,7 +43,11 @@ export function tableHtml(
 }
 
 /** The node table with a column naming each node's symbol. */
-export function nodesTableHtml(document: CheckedDocument, result: NetworkResult, units: UnitSetName): string {
+export function nodesTableHtml(
+  document: CheckedDocument,
+  result: NetworkResult,
+  units: UnitSetName,
+): string {
   const table = nodeTable(result, units);
   const withSymbol: TextTable = {
     title: "Nodes",
@@ -125,7 +130,6 @@ export function profileTableHtml(points: readonly ProfilePoint[], units: UnitSet
         Number.isNaN(point.chokeLimit) ? "" : formatNumber(point.chokeLimit, 4),
       ]),
   };
-  // The first column is a number here: render it as data, not a row header.
   return tableHtml(table, "mn-profile-table");
 }
 
@@ -143,7 +147,11 @@ export function warningsHtml(result: NetworkResult): string {
     ],
     rows: result.warnings.map((warning) => [
       warning.code,
-      warning.edge !== undefined ? `pipe ${warning.edge}` : warning.node !== undefined ? `node ${warning.node}` : "",
+      warning.edge !== undefined
+        ? `pipe ${warning.edge}`
+        : warning.node !== undefined
+          ? `node ${warning.node}`
+          : "",
       warning.message,
     ]),
   };
@@ -151,7 +159,10 @@ export function warningsHtml(result: NetworkResult): string {
 }
 
 /** A definition list of label and value pairs. */
-export function definitionListHtml(className: string, entries: readonly (readonly [string, string])[]): string {
+export function definitionListHtml(
+  className: string,
+  entries: readonly (readonly [string, string])[],
+): string {
   const items = entries
     .map(([label, value]) => `<dt>${escapeMarkup(label)}</dt><dd>${escapeMarkup(value)}</dd>`)
     .join("");
@@ -170,7 +181,10 @@ export function solverEntries(result: NetworkResult, units: UnitSetName): [strin
     ["mass residual (over throughput)", result.residuals.mass.toExponential(2)],
     ["energy residual (over throughput × cp T)", result.residuals.energy.toExponential(2)],
     ["throughput", `${formatNumber(flow.fromSI(b.throughput))} ${flow.label}`],
-    ["mass in / out", `${formatNumber(flow.fromSI(b.massIn))} / ${formatNumber(flow.fromSI(b.massOut))} ${flow.label}`],
+    [
+      "mass in / out",
+      `${formatNumber(flow.fromSI(b.massIn))} / ${formatNumber(flow.fromSI(b.massOut))} ${flow.label}`,
+    ],
     ["heat taken up in pipes", `${formatNumber(heat.fromSI(b.heatIn))} ${heat.label}`],
     ["largest junction mass imbalance", b.largestMassImbalance.toExponential(2)],
     ["largest junction energy imbalance", b.largestEnergyImbalance.toExponential(2)],

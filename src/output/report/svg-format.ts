@@ -69,6 +69,7 @@ export function tickLabel(value: number, step: number): string {
   if (magnitude >= 1e7 || magnitude < 1e-4) return value.toExponential(2);
   const decimals = step > 0 ? Math.max(0, Math.min(8, -Math.floor(Math.log10(step) + 1e-9))) : 3;
   // A step of 2.5 x 10^k needs one more decimal than 10^k.
-  const extra = step > 0 && Math.abs(step / 10 ** Math.floor(Math.log10(step)) - 2.5) < 1e-9 ? 1 : 0;
+  const extra =
+    step > 0 && Math.abs(step / 10 ** Math.floor(Math.log10(step)) - 2.5) < 1e-9 ? 1 : 0;
   return value.toFixed(decimals + extra);
 }
