@@ -267,10 +267,7 @@ function evaluateAdiabatic(
   };
   // Known choked last time, or no flow: the capacity decides, solve it first.
   if (needCapacity || out.choked || pd >= p0) solveCapacity();
-  if (pd >= p0) {
-    setZeroFlowAdiabatic(pipe, gas, p0, t0, mu, area, out);
-    return;
-  }
+  if (setCreepingFlow(pipe, gas, p0, t0, pd, mu, muSlope, area, p0, out)) return;
 
   // Subsonic exit: g(M1) = ln(p_exit/p0) - ln(pd/p0) = 0 on (0, M1c). Without the capacity the
   // bracket is (0, 1) and the pipe's capacity shows up as a root that drifts to the sonic exit.
@@ -515,30 +512,57 @@ function adiabaticCapacityMach(
   return mach;
 }
 
-/** No flow (pd = p0): zero mass flow with the laminar (Hagen-Poiseuille) slope. */
-function setZeroFlowAdiabatic(
+/** Relative pressure drop below which a pipe's flow is taken as creeping laminar flow. */
+const CREEPING_PRESSURE_RATIO = 1e-10;
+/** Largest Reynolds number at which the creeping-flow law is used (far below 2300). */
+const CREEPING_REYNOLDS = 10;
+
+/**
+ * Creeping flow: for a vanishing pressure drop the flow is laminar and linear in it, by the
+ * Hagen-Poiseuille law m = rho D^2 A (p0 - pd) / (32 mu L) (the minor losses and the kinetic
+ * energy are of second order in the flow and drop out). Used below a relative drop of 1e-10,
+ * where the compressible relations would have to resolve ln(pd/p0) within a few units of
+ * rounding and their derivatives lose all accuracy, and only while Re stays below 10. Fills
+ * `out` and returns true when it applies. `inletPressure` is the pipe's inlet static pressure
+ * (p0 for both models at such flows).
+ */
+function setCreepingFlow(
   pipe: PipeGeometry,
   gas: PipeGas,
   p0: number,
   t0: number,
+  pd: number,
   mu: number,
+  muSlope: number,
   area: number,
+  inletPressure: number,
   out: PipeFlowEvaluation,
-): void {
-  // m = rho D^2 A (p0 - pd) / (32 mu L) as the flow vanishes (64/Re friction dominates K).
+): boolean {
+  const drop = p0 - pd;
+  if (!(drop <= CREEPING_PRESSURE_RATIO * p0)) return false;
   const density = p0 / (gas.specificGasConstant * t0);
   const conductance = (density * pipe.diameter * pipe.diameter * area) / (32 * mu * pipe.length);
+  const massFlow = conductance * Math.max(drop, 0);
+  const reynolds = (massFlow * pipe.diameter) / (area * mu);
+  if (reynolds > CREEPING_REYNOLDS) return false;
+  const velocity = massFlow / (area * density);
+  const mach = velocity / Math.sqrt(gas.heatCapacityRatio * gas.specificGasConstant * t0);
   out.choked = false;
-  out.massFlow = 0;
-  out.dMassFlowdUpstreamPressure = conductance;
-  out.dMassFlowdUpstreamTemperature = 0;
+  out.massFlow = massFlow;
+  out.dMassFlowdUpstreamPressure = conductance * (1 + drop / p0);
+  out.dMassFlowdUpstreamTemperature = -massFlow * (1 / t0 + muSlope);
   out.dMassFlowdDownstreamPressure = -conductance;
-  out.inletMach = 0;
-  out.outletMach = 0;
-  out.inletPressure = p0;
-  out.outletPressure = p0;
-  out.reynolds = 0;
-  out.frictionFactor = Number.isNaN(pipe.fixedFrictionFactor) ? 0 : pipe.fixedFrictionFactor;
+  out.inletMach = mach;
+  out.outletMach = mach;
+  out.inletPressure = inletPressure;
+  out.outletPressure = pd;
+  out.reynolds = reynolds;
+  out.frictionFactor = reynolds > 0 ? 64 / reynolds : 0;
+  out.arrivalTemperature = t0;
+  out.dArrivalTemperaturedUpstreamPressure = 0;
+  out.dArrivalTemperaturedUpstreamTemperature = 1;
+  out.dArrivalTemperaturedDownstreamPressure = 0;
+  return true;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -590,25 +614,7 @@ function evaluateIsothermal(
   // Known choked last time, or no flow or no back-pressure: the capacity decides, solve it first.
   if (needCapacity || out.choked || pd >= p1 || !(pd > 0)) solveCapacity();
 
-  if (pd >= p1) {
-    const conductance = (pipe.diameter * pipe.diameter * area * p1) / (32 * mu * pipe.length * rt);
-    out.choked = false;
-    out.massFlow = 0;
-    out.dMassFlowdUpstreamPressure = conductance;
-    out.dMassFlowdUpstreamTemperature = 0;
-    out.dMassFlowdDownstreamPressure = -conductance;
-    out.inletMach = 0;
-    out.outletMach = 0;
-    out.inletPressure = p1;
-    out.outletPressure = p1;
-    out.reynolds = 0;
-    out.frictionFactor = Number.isNaN(pipe.fixedFrictionFactor) ? 0 : pipe.fixedFrictionFactor;
-    out.arrivalTemperature = t;
-    out.dArrivalTemperaturedUpstreamPressure = 0;
-    out.dArrivalTemperaturedUpstreamTemperature = 1;
-    out.dArrivalTemperaturedDownstreamPressure = 0;
-    return;
-  }
+  if (setCreepingFlow(pipe, gas, p1, t, pd, mu, muSlope, area, p1, out)) return;
 
   // Subsonic: Newton on G in (0, G*); without the capacity, in (0, infinity) and the pipe's
   // capacity shows as an exit Mach number at or above 1/sqrt(gamma).

@@ -44,6 +44,14 @@ export function noFlowWeight(throughput: number, inflow: number): number {
  */
 export const CHOKED_SLOPE_FRACTION = 1e-6;
 
+/**
+ * Rounding of a node pressure in units of the pressure (4 units of double rounding). A flow
+ * follows from the difference of its two end pressures, so it carries a round-off of about its
+ * pressure slopes times this times the pressures: where a pressure drop is 1e-9 of the pressure,
+ * the flow is known to only about 1e-7 of itself, however well Newton has converged.
+ */
+export const FLOW_ROUNDING = 4 * Number.EPSILON;
+
 /** Everything about a network that does not change between iterations. */
 export interface NetworkSystem {
   model: NetworkModel;
@@ -87,6 +95,11 @@ export interface SystemEvaluation {
    * [kg/s K]. residual * energyScale / (W T_ref) is the enthalpy imbalance over W cp T_ref.
    */
   energyScale: Float64Array;
+  /**
+   * Per junction, the round-off its mass residual cannot go below, over W: the sum of its edges'
+   * flow round-off (see FLOW_ROUNDING).
+   */
+  massNoise: Float64Array;
   /** Throughput used to scale the mass residuals [kg/s]. */
   throughput: number;
 }
@@ -213,6 +226,8 @@ export function evaluateSystem(
   const nodeCount = model.document.nodes.length;
   const nodeNetOutflow = new Float64Array(nodeCount);
   const nodeInflow = new Float64Array(nodeCount);
+  // Round-off of each flow: its change for a few units of rounding in its end pressures [kg/s].
+  const nodeFlowNoise = new Float64Array(nodeCount);
 
   for (let e = 0; e < edgeCount; e++) {
     const from = model.edgeFrom[e] as number;
@@ -252,6 +267,12 @@ export function evaluateSystem(
     arrivalSlopes[4 * e + downP] = result.dArrivalTemperaturedDownstreamPressure;
     const downstreamNode = forward ? to : from;
     nodeInflow[downstreamNode] = (nodeInflow[downstreamNode] as number) + result.massFlow;
+    const noise =
+      FLOW_ROUNDING *
+      (Math.abs(result.dMassFlowdUpstreamPressure) * pUp +
+        Math.abs(result.dMassFlowdDownstreamPressure) * pDown);
+    nodeFlowNoise[from] = (nodeFlowNoise[from] as number) + noise;
+    nodeFlowNoise[to] = (nodeFlowNoise[to] as number) + noise;
     nodeNetOutflow[from] = (nodeNetOutflow[from] as number) + (massFlow[e] as number);
     nodeNetOutflow[to] = (nodeNetOutflow[to] as number) - (massFlow[e] as number);
   }
@@ -371,7 +392,20 @@ export function evaluateSystem(
       }
     }
   }
-  return { residual, jacobian, massFlow, choked, nodeNetOutflow, energyScale, throughput: scale };
+  const massNoise = new Float64Array(junctionCount);
+  for (let j = 0; j < junctionCount; j++) {
+    massNoise[j] = (nodeFlowNoise[model.junctionNodes[j] as number] as number) / scale;
+  }
+  return {
+    residual,
+    jacobian,
+    massFlow,
+    choked,
+    nodeNetOutflow,
+    energyScale,
+    massNoise,
+    throughput: scale,
+  };
 }
 
 /**

@@ -6,10 +6,18 @@ import type { CheckedDocument } from "../input/document-types.js";
 import { InputError } from "../input/issues.js";
 import { checkedDocumentOrThrow } from "../input/read-document.js";
 import { buildNetwork, type NetworkModel } from "../model/build-network.js";
+import { type EdgeElement, evaluateEdgeFlow } from "../physics/edge-flow.js";
+import { PipeFlowEvaluation } from "../physics/pipe-flow.js";
 import { designWarnings, resultsAtState } from "../results/build-results.js";
 import type { NetworkResult, NoSolutionDiagnosis, SolverWarning } from "../results/result-types.js";
 import { initialGuess } from "./initial-guess.js";
-import { createNetworkSystem, evaluateSystem, type NetworkSystem } from "./network-system.js";
+import {
+  createNetworkSystem,
+  evaluateSystem,
+  type NetworkSystem,
+  nodePressure,
+  nodeTemperature,
+} from "./network-system.js";
 import { type NewtonOutcome, newtonSolve } from "./newton.js";
 
 /** Options of {@link solveNetwork}. */
@@ -143,9 +151,10 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
   const converged = status === "converged";
   if (converged) {
     const tolerance = CHECK_MARGIN * settings.tolerance;
+    const noise = outcome.evaluation.massNoise.reduce((a, b) => Math.max(a, b), 0);
     const b = state.balance;
     if (
-      !(b.largestMassImbalance <= tolerance) ||
+      !(b.largestMassImbalance <= tolerance + CHECK_MARGIN * noise) ||
       !(b.largestEnergyImbalance <= tolerance) ||
       !(b.largestExitPressureMismatch <= EXIT_PRESSURE_TOLERANCE)
     ) {
@@ -272,13 +281,29 @@ function diagnose(
   const doc = system.model.document;
   const limitingEdges: NoSolutionDiagnosis["limitingEdges"] = [];
   if (rescue.outcome) {
+    // Each edge afresh at the largest solved case, with its capacity (Newton skips it).
     const at = withDemandScale(system, rescue.scale);
     const evaluation = evaluateSystem(at, rescue.outcome.x, false);
+    const scratch = new PipeFlowEvaluation();
     for (let e = 0; e < system.edgeCount; e++) {
-      const evaluationOfEdge = system.evaluations[e];
+      const from = system.model.edgeFrom[e] as number;
+      const to = system.model.edgeTo[e] as number;
+      const pFrom = nodePressure(at, rescue.outcome.x, from);
+      const pTo = nodePressure(at, rescue.outcome.x, to);
+      const forward = pFrom >= pTo;
+      const edgeState = evaluateEdgeFlow(
+        system.elements[e] as EdgeElement,
+        system.gas,
+        forward ? pFrom : pTo,
+        nodeTemperature(at, rescue.outcome.x, forward ? from : to),
+        forward ? pTo : pFrom,
+        forward,
+        scratch,
+        true,
+      );
       const flow = Math.abs(evaluation.massFlow[e] as number);
-      const capacity = evaluationOfEdge?.capacity ?? 0;
-      if (evaluation.choked[e] === 1 || (capacity > 0 && flow / capacity > 0.98)) {
+      const capacity = edgeState.capacity;
+      if (edgeState.choked || (capacity > 0 && flow / capacity > 0.98)) {
         limitingEdges.push({ id: doc.edges[e]?.id ?? String(e), capacity, massFlow: flow });
       }
     }

@@ -218,19 +218,25 @@ export function factorBlockMatrix(
     const a12 = a[p + 1] as number;
     const a21 = a[p + 2] as number;
     let a22 = a[p + 3] as number;
+    // Singularity test invariant to scaling either row: |det| against the product of the rows'
+    // sizes (a network's mass and energy rows can differ by ten orders of magnitude).
+    const rowOne = Math.abs(a11) + Math.abs(a12);
+    const rowTwo = Math.abs(a21) + Math.abs(a22);
     const scale = Math.max(Math.abs(a11), Math.abs(a12), Math.abs(a21), Math.abs(a22), 1e-300);
     let det = a11 * a22 - a12 * a21;
-    if (!(Math.abs(det) > 1e-14 * scale * scale)) {
+    if (!(Math.abs(det) > 1e-14 * rowOne * rowTwo)) {
       // Singular pivot: shift the diagonal a little so the factorization can go on; the caller
       // sees the row in perturbedPivots and its Newton step is then only approximate.
       perturbedPivots.push(pivot);
-      const shift = 1e-10 * scale;
-      a11 += a11 >= 0 ? shift : -shift;
-      a22 += a22 >= 0 ? shift : -shift;
+      // Each row's shift is relative to that row's own size.
+      const shiftOne = 1e-10 * (rowOne > 0 ? rowOne : scale);
+      const shiftTwo = 1e-10 * (rowTwo > 0 ? rowTwo : scale);
+      a11 += a11 >= 0 ? shiftOne : -shiftOne;
+      a22 += a22 >= 0 ? shiftTwo : -shiftTwo;
       det = a11 * a22 - a12 * a21;
       if (det === 0) {
-        a11 += shift;
-        a22 += shift;
+        a11 += shiftOne;
+        a22 += shiftTwo;
         det = a11 * a22 - a12 * a21;
       }
     }
