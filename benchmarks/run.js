@@ -28,7 +28,14 @@ async function parent() {
     for (const topology of topologies) {
       const output = execFileSync(
         process.execPath,
-        ["--max-old-space-size=4096", fileURLToPath(import.meta.url), "--child", String(edges), topology, "1"],
+        [
+          "--max-old-space-size=4096",
+          fileURLToPath(import.meta.url),
+          "--child",
+          String(edges),
+          topology,
+          "1",
+        ],
         { encoding: "utf8", maxBuffer: 1 << 24 },
       );
       const row = JSON.parse(output.trim().split("\n").pop());
@@ -55,7 +62,9 @@ async function parent() {
   const file = new URL(`./results/solve-${stamp}.json`, import.meta.url);
   writeFileSync(file, `${JSON.stringify({ machine, rows }, null, 2)}\n`);
   console.log(`\ncolumns: edges, topology, nodes, loops, status, Newton iterations,`);
-  console.log(`solve ms (cold, whole solveNetwork), ms per 1000 edges, peak RSS MB, solve time / one residual evaluation`);
+  console.log(
+    `solve ms (cold, whole solveNetwork), ms per 1000 edges, peak RSS MB, solve time / one residual evaluation`,
+  );
   console.log(`machine: ${machine}\nwritten ${fileURLToPath(file)}`);
   void here;
 }

@@ -63,9 +63,17 @@ export {
   UNIT_SET_NAMES,
   type UnitSetName,
 } from "./output/display-units.js";
+// Visual report
+export {
+  type DrawOptions,
+  drawNetworkSvg,
+  findProfilePath,
+  REPORT_CAUTION,
+  type ReportOptions,
+  renderReportHtml,
+} from "./output/report/index.js";
 export * from "./physics/fanno.js";
 export * from "./physics/friction.js";
-
 // One-dimensional relations and one pipe
 export * from "./physics/isentropic.js";
 export * from "./physics/isothermal.js";
@@ -93,13 +101,3 @@ export {
   type SolveOptions,
   solveNetwork,
 } from "./solve/solve-network.js";
-
-// Visual report
-export {
-  type DrawOptions,
-  drawNetworkSvg,
-  findProfilePath,
-  REPORT_CAUTION,
-  type ReportOptions,
-  renderReportHtml,
-} from "./output/report/index.js";

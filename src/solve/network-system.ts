@@ -113,18 +113,19 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
     heatCapacityRatio: gasData.heatCapacityRatio,
     viscosity: (temperature: number) => gasViscosity(gasData, temperature),
   };
-  const elements: EdgeElement[] = doc.edges.map((edge): EdgeElement =>
-    edge.kind === "pipe"
-      ? {
-          kind: "pipe",
-          length: edge.length,
-          diameter: edge.diameter,
-          roughness: edge.roughness ?? 0,
-          fixedFrictionFactor: edge.frictionFactor ?? Number.NaN,
-          minorLoss: edge.minorLoss,
-          model: edge.model,
-        }
-      : { ...edge.component },
+  const elements: EdgeElement[] = doc.edges.map(
+    (edge): EdgeElement =>
+      edge.kind === "pipe"
+        ? {
+            kind: "pipe",
+            length: edge.length,
+            diameter: edge.diameter,
+            roughness: edge.roughness ?? 0,
+            fixedFrictionFactor: edge.frictionFactor ?? Number.NaN,
+            minorLoss: edge.minorLoss,
+            model: edge.model,
+          }
+        : { ...edge.component },
   );
   const nodeCount = doc.nodes.length;
   const fixedPressure = new Float64Array(nodeCount).fill(Number.NaN);
