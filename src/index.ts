@@ -101,3 +101,4 @@ export {
   type SolveOptions,
   solveNetwork,
 } from "./solve/solve-network.js";
+export * from "./study/index.js";

@@ -16,8 +16,11 @@ import { InternalCheckError } from "../solve/solve-network.js";
 import { checkCommand } from "./check-command.js";
 import { CliError, EXIT, linesText } from "./cli-error.js";
 import { type CliIo, completeIo, type FullCliIo } from "./cli-io.js";
+import { type MergeCommandOptions, mergeCommand } from "./merge-command.js";
+import { runReport } from "./report-command.js";
 import { type SolveCommandOptions, solveCommand } from "./solve-command.js";
 import { STATE_MODES, type StateCommandOptions, stateCommand } from "./state-command.js";
+import { type StudyCommandOptions, type StudyRuntime, studyCommand } from "./study-command.js";
 
 export { EXIT } from "./cli-error.js";
 export type { CliIo } from "./cli-io.js";
@@ -60,10 +63,10 @@ function unitsOption(): Option {
 }
 
 /** The command tree; `run` receives each command's exit code. */
-function buildProgram(io: FullCliIo, run: (code: number) => void): Command {
+function buildProgram(io: FullCliIo, runtime: StudyRuntime, run: (code: number) => void): Command {
   const program = new Command("machnet")
     .description(
-      "Steady compressible gas flow in pipe networks: solve a network file, check it, or work out the gas state at one pipe section.",
+      "Steady compressible gas flow in pipe networks: solve a network file, check it, draw a report, run a parametric study or a design question on it, or work out the gas state at one pipe section.",
     )
     .exitOverride()
     .configureOutput({
@@ -138,6 +141,100 @@ function buildProgram(io: FullCliIo, run: (code: number) => void): Command {
       run(stateCommand(options, io));
     });
 
+  program
+    .command("report")
+    .description(
+      "solve a network and write a visual report: one self-contained HTML file with the network drawing, a pressure profile and the tables (or, with --format svg, the drawing alone)",
+    )
+    .argument("<file>", "network document (JSON, UTF-8)")
+    .option(
+      "-o, --output <path>",
+      'where to write the report ("-" for standard output); default FILE with .html or .svg',
+    )
+    .addOption(
+      new Option("--color <quantity>", "what the pipe colours show")
+        .choices(["mach", "pressure", "velocity", "flow"])
+        .default("mach"),
+    )
+    .addOption(
+      new Option("--format <format>", "report format").choices(["html", "svg"]).default("html"),
+    )
+    .addOption(unitsOption())
+    .option(
+      "--to <node>",
+      "node the pressure profile runs to (default: the lowest-pressure consumer)",
+    )
+    .option("--from <reservoir>", "reservoir the pressure profile starts from")
+    .action(
+      async (
+        file: string,
+        options: {
+          output?: string;
+          color?: string;
+          format?: "html" | "svg";
+          units?: string;
+          to?: string;
+          from?: string;
+        },
+      ) => {
+        const args: Parameters<typeof runReport>[0] = { file };
+        if (options.output !== undefined) args.output = options.output;
+        if (options.color !== undefined) args.colorBy = options.color;
+        if (options.format !== undefined) args.format = options.format;
+        if (options.units !== undefined) args.units = options.units;
+        if (options.to !== undefined) args.to = options.to;
+        if (options.from !== undefined) args.from = options.from;
+        run(await runReport(args, io));
+      },
+    );
+
+  program
+    .command("study")
+    .description(
+      "run a study document: a sweep over varied inputs (one row per case, CSV or JSON lines), or a design question (target, capacity, sensitivities, sizing)",
+    )
+    .argument("<file>", "study document (JSON, UTF-8; schemas/study.schema.json)")
+    .option(
+      "-o, --output <path>",
+      "write the rows (.csv or .jsonl) or the answer (.txt or .json) to this file instead of standard output",
+    )
+    .option(
+      "--format <format>",
+      "sweep: csv (default) or jsonl; design question: text (default) or json; default from the --output extension",
+    )
+    .option(
+      "--workers <n>",
+      "worker threads for a sweep (default: one per 1000 cases, at most one per core)",
+    )
+    .option(
+      "--shard <K/N>",
+      "run only slice K of N of a sweep (for job arrays); join with machnet merge",
+    )
+    .option("-q, --quiet", "no progress and no summary on standard error")
+    .addHelpText(
+      "after",
+      `
+A sweep writes one row per case in case order: the varied inputs, status, Newton iterations, the
+case it was warm-started from, the chosen outputs and, for a case that did not converge, why.
+CSV values are in the study's unit set ("units", default si) with units in the header; JSON lines
+are SI. The exit code is 0 once every case has a row, failed ones included.
+A design question prints its answer; exit code 1 when there is none (not bracketed, infeasible).`,
+    )
+    .action(async (file: string, options: StudyCommandOptions) => {
+      run(await studyCommand(file, options, io, runtime));
+    });
+
+  program
+    .command("merge")
+    .description(
+      "join the outputs of machnet study --shard K/N runs into the file a single run writes",
+    )
+    .argument("<files...>", "the shard outputs, in any order")
+    .option("-o, --output <path>", "write the merged file here instead of standard output")
+    .action(async (files: string[], options: MergeCommandOptions) => {
+      run(await mergeCommand(files, options, io));
+    });
+
   return program;
 }
 
@@ -177,9 +274,19 @@ function reportInternalError(error: unknown, io: FullCliIo): void {
  */
 export async function main(argv: string[], io?: CliIo): Promise<number> {
   const full = completeIo(io);
+  // The progress bar of a study needs a terminal on standard error; in memory (tests) there is none.
+  const runtime: StudyRuntime = { stderrIsTTY: io === undefined && process.stderr.isTTY === true };
+  if (io === undefined) {
+    // A reader that stops early (`machnet study ... | head`) closes the pipe: stop quietly, as
+    // command-line tools do, instead of failing on the next write.
+    process.stdout.on("error", (error: NodeJS.ErrnoException) => {
+      if (error.code === "EPIPE") process.exit(process.exitCode ?? 0);
+      throw error;
+    });
+  }
   let exitCode: number = EXIT.ok;
   try {
-    const program = buildProgram(full, (code) => {
+    const program = buildProgram(full, runtime, (code) => {
       exitCode = code;
     });
     await program.parseAsync(argv, { from: "user" });

@@ -6,6 +6,21 @@
 import { CliError } from "./cli-error.js";
 import type { FullCliIo } from "./cli-io.js";
 
+/**
+ * Largest network file read [bytes]: 32 MiB. A network of 100 000 pipes written with two-space
+ * indents takes about 24 MB (benchmarks/generate-network.js); a larger file is refused with one
+ * line before it is parsed, so a wrong path to a log or a dump does not tie up the machine.
+ */
+export const MAX_INPUT_FILE_BYTES = 32 * 1024 * 1024;
+
+function tooLarge(path: string, bytes: number | undefined): CliError {
+  const size =
+    bytes === undefined ? "larger than 2 GiB" : `${(bytes / 1024 / 1024).toFixed(1)} MiB`;
+  return new CliError([
+    `${path}: the file is ${size}; a network file may be at most ${MAX_INPUT_FILE_BYTES / 1024 / 1024} MiB`,
+  ]);
+}
+
 /** What a file-system error code means, in words. */
 const READ_ERRORS: Readonly<Record<string, string>> = {
   ENOENT: "no such file",
@@ -22,8 +37,8 @@ const READ_ERRORS: Readonly<Record<string, string>> = {
  * The text of a file: UTF-8, a leading byte-order mark removed.
  *
  * @throws CliError (exit 2) `FILE: no such file`, `FILE: is a directory...`,
- *   `FILE: not valid UTF-8 text`, `FILE: cannot be read (...)`; an error without a code (not a
- *   file-system error) is passed on
+ *   `FILE: not valid UTF-8 text`, `FILE: the file is 50.0 MiB; ...`, `FILE: cannot be read
+ *   (...)`, always one line; an error without a code (not a file-system error) is passed on
  */
 export async function readInputFile(path: string, io: FullCliIo): Promise<string> {
   let content: Buffer | string;
@@ -32,11 +47,14 @@ export async function readInputFile(path: string, io: FullCliIo): Promise<string
   } catch (error) {
     const code = (error as { code?: unknown } | null)?.code;
     if (typeof code !== "string") throw error;
+    // Node refuses to read a file above 2 GiB into one buffer.
+    if (code === "ERR_FS_FILE_TOO_LARGE") throw tooLarge(path, undefined);
     const meaning = READ_ERRORS[code];
-    throw new CliError([
-      `${path}: ${meaning ?? `cannot be read (${code}: ${(error as Error).message})`}`,
-    ]);
+    const detail = String((error as Error).message).replace(/\s*[\r\n]+\s*/g, " ");
+    throw new CliError([`${path}: ${meaning ?? `cannot be read (${code}: ${detail})`}`]);
   }
+  // A string from an in-memory reader counts its UTF-16 units, near enough to bytes here.
+  if (content.length > MAX_INPUT_FILE_BYTES) throw tooLarge(path, content.length);
   if (typeof content === "string") {
     return content.charCodeAt(0) === 0xfeff ? content.slice(1) : content;
   }

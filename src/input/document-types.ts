@@ -56,20 +56,93 @@ export interface NodeInput {
   demand?: QuantityInput;
 }
 
-/** An edge as written in a document. */
-export interface EdgeInput {
+/** Edge kinds: a pipe or a component. */
+export type EdgeKind = "pipe" | ComponentKind;
+
+/** Component kinds (edges other than pipes). */
+export type ComponentKind = "orifice" | "nozzle" | "valve" | "regulator" | "check";
+
+/** A fitting on a pipe, by machnet's type name (src/input/fittings.ts). */
+export interface FittingInput {
+  type: string;
+  /** @defaultValue 1 */
+  count?: number;
+}
+
+/** Fields every edge has. */
+interface EdgeInputBase {
   id: string;
-  kind: "pipe";
+  kind: EdgeKind;
   description?: string;
   from: string;
   to: string;
+}
+
+/** A pipe as written in a document. */
+export interface PipeEdgeInput extends EdgeInputBase {
+  kind: "pipe";
   length: QuantityInput;
-  diameter: QuantityInput;
+  /** Inside diameter; or give `size` and `schedule`. */
+  diameter?: QuantityInput;
+  /** Nominal size: "DN80", "3 in", "NPS 3", "1 1/2 in". */
+  size?: string;
+  /** ASME B36.10M or B36.19M schedule: "40", "STD", "XS", "10S", ... */
+  schedule?: string;
+  /** Wall material, setting a typical roughness. */
+  material?: string;
   roughness?: QuantityInput;
   frictionFactor?: number;
   minorLoss?: number;
+  fittings?: FittingInput[];
   model?: PipeModelName;
 }
+
+/** An orifice plate or restriction orifice, or a rounded nozzle. */
+export interface RestrictionEdgeInput extends EdgeInputBase {
+  kind: "orifice" | "nozzle";
+  boreDiameter: QuantityInput;
+  pipeDiameter?: QuantityInput;
+  dischargeCoefficient?: number;
+}
+
+/** Fields of the valve-like components: a flow coefficient, Kv or Cv, and xT. */
+interface TrimInput {
+  kv?: number;
+  cv?: number;
+  xT?: number;
+  pipeDiameter?: QuantityInput;
+}
+
+/** A control or isolation valve. */
+export interface ValveEdgeInput extends EdgeInputBase, TrimInput {
+  kind: "valve";
+  opening?: number;
+  characteristic?: "linear" | "equal-percentage";
+  rangeability?: number;
+  valveDiameter?: QuantityInput;
+  outletPipeDiameter?: QuantityInput;
+}
+
+/** A pressure regulator. */
+export interface RegulatorEdgeInput extends EdgeInputBase, TrimInput {
+  kind: "regulator";
+  setpoint: QuantityInput;
+  proportionalBand?: QuantityInput;
+}
+
+/** A check valve. */
+export interface CheckEdgeInput extends EdgeInputBase, TrimInput {
+  kind: "check";
+  lossCoefficient?: number;
+}
+
+/** An edge as written in a document. */
+export type EdgeInput =
+  | PipeEdgeInput
+  | RestrictionEdgeInput
+  | ValveEdgeInput
+  | RegulatorEdgeInput
+  | CheckEdgeInput;
 
 /** A whole network document. */
 export interface NetworkDocument {
@@ -120,10 +193,14 @@ export interface CheckedNode {
   demand: number;
 }
 
-/** An edge with its values in SI. */
-export interface CheckedEdge {
+/**
+ * Fields every checked edge has. For a component (a lumped element) `length` is 0, `minorLoss` 0,
+ * `model` "adiabatic", and `diameter` the inside diameter of its upstream connecting pipe, or,
+ * without one, its bore (orifice, nozzle) or the diameter of a circle of its flow area Kv / 36000
+ * m2 (valve, regulator, check valve).
+ */
+interface CheckedEdgeBase {
   id: string;
-  kind: "pipe";
   from: string;
   to: string;
   /** [m] */
@@ -138,6 +215,62 @@ export interface CheckedEdge {
   minorLoss: number;
   model: PipeModelName;
 }
+
+/** A pipe with its values in SI. */
+export interface CheckedPipeEdge extends CheckedEdgeBase {
+  kind: "pipe";
+  /** Nominal size and schedule it was given by, if any. */
+  catalog?: { nominalPipeSize: number; nominalDiameter: number; schedule: string };
+}
+
+/** A component with its values in SI; `component` is what the solver evaluates. */
+export interface CheckedComponentEdge extends CheckedEdgeBase {
+  kind: ComponentKind;
+  component: CheckedComponent;
+}
+
+/** An edge with its values in SI. */
+export type CheckedEdge = CheckedPipeEdge | CheckedComponentEdge;
+
+/**
+ * A component's parameters in SI; a diameter not given is NaN. The same fields, one for one, as
+ * the solver's elements in src/physics/components/component-elements.ts (see there for each).
+ */
+export type CheckedComponent =
+  | {
+      kind: "orifice" | "nozzle";
+      boreDiameter: number;
+      pipeDiameter: number;
+      dischargeCoefficient: number;
+    }
+  | {
+      kind: "valve";
+      /** Kv at full opening [m3/h]. */
+      flowCoefficient: number;
+      opening: number;
+      characteristic: "linear" | "equal-percentage";
+      rangeability: number;
+      pressureDifferentialRatioFactor: number;
+      valveDiameter: number;
+      inletPipeDiameter: number;
+      outletPipeDiameter: number;
+    }
+  | {
+      kind: "regulator";
+      /** [Pa absolute] */
+      setpoint: number;
+      /** [Pa] */
+      proportionalBand: number;
+      flowCoefficient: number;
+      pressureDifferentialRatioFactor: number;
+      pipeDiameter: number;
+    }
+  | {
+      kind: "check";
+      flowCoefficient: number;
+      pressureDifferentialRatioFactor: number;
+      pipeDiameter: number;
+    };
 
 /** A warning found while reading the document (not an error): for example a bare "bar". */
 export interface InputNote {

@@ -8,6 +8,9 @@
  * of JSON-Pointer messages.
  */
 
+import { FITTING_TYPES } from "./fittings.js";
+import { PIPE_MATERIAL_NAMES, PIPE_SCHEDULES } from "./pipe-catalog.js";
+
 const quantity = {
   description:
     'A plain number in SI base units (Pa absolute, K, m, kg/s, Pa s) or a string "<number> <unit>" such as "7 bar(g)", "35 degC", "80 mm", "1800 kg/h".',
@@ -40,7 +43,7 @@ export const networkSchema = {
   $id: "https://machnet.invalid/schemas/network.schema.json",
   title: "machnet network",
   description:
-    "A steady compressible gas network: nodes (reservoirs and junctions) joined by edges (pipes).",
+    "A steady compressible gas network: nodes (reservoirs and junctions) joined by edges (pipes and components).",
   type: "object",
   additionalProperties: false,
   required: ["nodes", "edges"],
@@ -179,35 +182,161 @@ export const networkSchema = {
       minItems: 1,
       items: {
         type: "object",
+        description:
+          "A pipe, or a component: orifice, nozzle, valve, regulator or check valve. Each kind takes its own fields (listed in each field's description).",
         additionalProperties: false,
-        required: ["id", "kind", "from", "to", "length", "diameter"],
+        required: ["id", "kind", "from", "to"],
         properties: {
           id,
-          kind: { enum: ["pipe"] },
+          kind: { enum: ["pipe", "orifice", "nozzle", "valve", "regulator", "check"] },
           description: { type: "string", maxLength: 10000 },
           from: { type: "string", minLength: 1, maxLength: 200 },
           to: { type: "string", minLength: 1, maxLength: 200 },
-          length: { ...quantity, description: "Pipe length, > 0." },
-          diameter: { ...quantity, description: "Inside diameter, > 0." },
+          length: { ...quantity, description: "Pipe: length, > 0." },
+          diameter: {
+            ...quantity,
+            description: 'Pipe: inside diameter, > 0; or give "size" and "schedule".',
+          },
+          size: {
+            type: "string",
+            maxLength: 32,
+            description:
+              'Pipe: nominal size, "DN80" or NPS "3 in", "NPS 3", "1 1/2 in"; with "schedule" it sets the inside diameter (ASME B36.10M, B36.19M).',
+          },
+          schedule: {
+            type: "string",
+            maxLength: 8,
+            description: `Pipe: schedule with "size": ${PIPE_SCHEDULES.join(", ")}.`,
+          },
+          material: {
+            enum: PIPE_MATERIAL_NAMES,
+            description:
+              "Pipe: wall material, setting a typical roughness (NORSOK P-001; Idel'chik). Instead of roughness.",
+          },
           roughness: {
             ...quantity,
             description:
-              "Absolute wall roughness; friction from Colebrook-White. Default 0.05 mm (carbon steel).",
+              "Pipe: absolute wall roughness; friction from Colebrook-White. Default 0.05 mm (carbon steel).",
           },
           frictionFactor: {
             type: "number",
             exclusiveMinimum: 0,
             maximum: 1,
-            description: "A fixed Darcy friction factor instead of roughness.",
+            description: "Pipe: a fixed Darcy friction factor instead of roughness.",
           },
           minorLoss: {
             type: "number",
             minimum: 0,
             maximum: 100000,
-            description: "Sum of minor-loss coefficients K of the pipe's fittings. Default 0.",
+            description:
+              "Pipe: sum of minor-loss coefficients K not listed as fittings. Default 0.",
           },
-          model: { enum: ["adiabatic", "isothermal"] },
+          fittings: {
+            type: "array",
+            maxItems: 1000,
+            description:
+              "Pipe: fittings by type and count; K by Darby's 3-K method (turbulent), added to minorLoss.",
+            items: {
+              type: "object",
+              additionalProperties: false,
+              required: ["type"],
+              properties: {
+                type: { enum: FITTING_TYPES },
+                count: { type: "integer", minimum: 1, maximum: 10000, description: "Default 1." },
+              },
+            },
+          },
+          model: { enum: ["adiabatic", "isothermal"], description: "Pipe: flow model." },
+          boreDiameter: {
+            ...quantity,
+            description: "Orifice: bore; nozzle: throat diameter. > 0.",
+          },
+          pipeDiameter: {
+            ...quantity,
+            description:
+              "Orifice, nozzle: inside diameter of the pipe it sits in (beta = d/D; none: between plenums). Valve, regulator, check: inside diameter of the connecting pipe (for its end states; a valve's reducers).",
+          },
+          dischargeCoefficient: {
+            type: "number",
+            exclusiveMinimum: 0,
+            maximum: 1,
+            description: "Orifice (default 0.60), nozzle (default 0.985): C.",
+          },
+          kv: {
+            type: "number",
+            exclusiveMinimum: 0,
+            description: "Valve, regulator (wide open), check: flow coefficient Kv in m3/h.",
+          },
+          cv: {
+            type: "number",
+            exclusiveMinimum: 0,
+            description: "Instead of kv: flow coefficient Cv in US gal/min (Kv = 0.865 Cv).",
+          },
+          xT: {
+            type: "number",
+            exclusiveMinimum: 0,
+            maximum: 1,
+            description:
+              "Valve, regulator, check: pressure differential ratio factor xT (IEC 60534-2-1). Default 0.70.",
+          },
+          opening: {
+            type: "number",
+            minimum: 0,
+            maximum: 1,
+            description: "Valve: relative travel, 0 (shut) to 1. Default 1.",
+          },
+          characteristic: {
+            enum: ["linear", "equal-percentage"],
+            description: "Valve: inherent characteristic. Default linear.",
+          },
+          rangeability: {
+            type: "number",
+            exclusiveMinimum: 1,
+            maximum: 1000,
+            description: "Valve: rangeability of an equal-percentage trim. Default 50.",
+          },
+          valveDiameter: {
+            ...quantity,
+            description:
+              "Valve: inside diameter of its ends, when smaller than the pipe (reducers, IEC 60534-2-1 Fp and xTP).",
+          },
+          outletPipeDiameter: {
+            ...quantity,
+            description: 'Valve: the pipe downstream, when it differs from "pipeDiameter".',
+          },
+          setpoint: {
+            ...quantity,
+            description: 'Regulator: the downstream pressure it holds, e.g. "4 bar(g)".',
+          },
+          proportionalBand: {
+            ...quantity,
+            description:
+              "Regulator: fall of downstream pressure from closed to wide open. Default 1 % of the absolute setpoint.",
+          },
+          lossCoefficient: {
+            type: "number",
+            exclusiveMinimum: 0,
+            maximum: 100000,
+            description: 'Check valve: K referred to "pipeDiameter", instead of kv or cv.',
+          },
         },
+        allOf: [
+          {
+            if: { properties: { kind: { const: "pipe" } } },
+            // biome-ignore lint/suspicious/noThenProperty: JSON Schema's own if/then keyword
+            then: { required: ["length"] },
+          },
+          {
+            if: { properties: { kind: { enum: ["orifice", "nozzle"] } } },
+            // biome-ignore lint/suspicious/noThenProperty: JSON Schema's own if/then keyword
+            then: { required: ["boreDiameter"] },
+          },
+          {
+            if: { properties: { kind: { const: "regulator" } } },
+            // biome-ignore lint/suspicious/noThenProperty: JSON Schema's own if/then keyword
+            then: { required: ["setpoint"] },
+          },
+        ],
         not: { required: ["roughness", "frictionFactor"] },
       },
     },

@@ -21,6 +21,7 @@ import type {
 import { InputError, type InputIssue, jsonPointer, sortIssues } from "./issues.js";
 import { networkSchema } from "./network-schema.js";
 import { parseQuantity, type QuantityKind } from "./quantity.js";
+import { readComponentEdge, readPipeExtras } from "./read-components.js";
 
 /** Defaults of the solver settings, documented in docs/model.md. */
 export const DEFAULT_SETTINGS = {
@@ -364,12 +365,22 @@ function convertDocument(doc: NetworkDocument): ReadResult {
     });
   }
   const ambientPressure =
-    reader.positive(ambientPressureInput, "pressure", "/ambient/pressure") ??
-    DEFAULT_AMBIENT.pressure;
+    inRange(
+      reader,
+      reader.positive(ambientPressureInput, "pressure", "/ambient/pressure"),
+      ambientPressureInput,
+      "/ambient/pressure",
+      INPUT_RANGES.ambientPressure,
+    ) ?? DEFAULT_AMBIENT.pressure;
   reader.ambientPressure = ambientPressure;
   const ambientTemperature =
-    reader.quantity(doc.ambient?.temperature, "temperature", "/ambient/temperature") ??
-    DEFAULT_AMBIENT.temperature;
+    inRange(
+      reader,
+      reader.quantity(doc.ambient?.temperature, "temperature", "/ambient/temperature"),
+      doc.ambient?.temperature,
+      "/ambient/temperature",
+      INPUT_RANGES.temperature,
+    ) ?? DEFAULT_AMBIENT.temperature;
 
   // Gas next: standard and normal volume flows need its molar mass.
   const gas = readGas(doc.gas, reader);
@@ -504,7 +515,13 @@ function readGas(input: GasInput | undefined, reader: Reader): Gas | undefined {
     }
   }
   if (bad) return undefined;
-  const molarMass = reader.positive(input.molarMass, "molarMass", "/gas/molarMass");
+  const molarMass = inRange(
+    reader,
+    reader.positive(input.molarMass, "molarMass", "/gas/molarMass"),
+    input.molarMass,
+    "/gas/molarMass",
+    INPUT_RANGES.molarMass,
+  );
   const gamma = input.gamma as number;
   if (!(gamma > 1 && gamma < 2)) {
     reader.fail({
@@ -530,23 +547,43 @@ function readViscosity(
   reader: Reader,
 ): ViscosityLaw | undefined {
   if (typeof input === "number" || typeof input === "string") {
-    const viscosity = reader.positive(input, "viscosity", "/gas/viscosity");
+    const viscosity = inRange(
+      reader,
+      reader.positive(input, "viscosity", "/gas/viscosity"),
+      input,
+      "/gas/viscosity",
+      INPUT_RANGES.viscosity,
+    );
     return viscosity === undefined ? undefined : { kind: "constant", viscosity };
   }
-  const referenceViscosity = reader.positive(
+  const referenceViscosity = inRange(
+    reader,
+    reader.positive(input.referenceViscosity, "viscosity", "/gas/viscosity/referenceViscosity"),
     input.referenceViscosity,
-    "viscosity",
     "/gas/viscosity/referenceViscosity",
+    INPUT_RANGES.viscosity,
   );
-  const referenceTemperature = reader.quantity(
+  const referenceTemperature = inRange(
+    reader,
+    reader.quantity(
+      input.referenceTemperature,
+      "temperature",
+      "/gas/viscosity/referenceTemperature",
+    ),
     input.referenceTemperature,
-    "temperature",
     "/gas/viscosity/referenceTemperature",
+    INPUT_RANGES.temperature,
   );
-  const sutherlandConstant = reader.positive(
+  const sutherlandConstant = inRange(
+    reader,
+    reader.positive(
+      input.sutherlandConstant,
+      "temperatureDifference",
+      "/gas/viscosity/sutherlandConstant",
+    ),
     input.sutherlandConstant,
-    "temperatureDifference",
     "/gas/viscosity/sutherlandConstant",
+    INPUT_RANGES.sutherlandConstant,
   );
   if (
     referenceViscosity === undefined ||
@@ -558,6 +595,81 @@ function readViscosity(
   return { kind: "sutherland", referenceViscosity, referenceTemperature, sutherlandConstant };
 }
 
+/** The plausible range of one input of the ideal-gas network model, in SI. */
+export interface InputRange {
+  /** Smallest and largest accepted value, in `unit`. */
+  low: number;
+  high: number;
+  unit: string;
+  /** What the range is of, for messages: "the ideal-gas model's temperatures". */
+  what: string;
+}
+
+/**
+ * Plausible ranges of the inputs of the ideal-gas network model. A value outside one is
+ * physically impossible for the model, or a unit slip, and is refused with its JSON Pointer and
+ * the range. The reasons (docs/model.md, "Input ranges"; common practice, no source):
+ * - temperature 20 K to 3000 K: below 20 K every gas but helium has condensed (hydrogen boils
+ *   at about 20.3 K at 1 atm, from memory) and helium is far from ideal; above 3000 K oxygen and
+ *   nitrogen dissociate and a constant cp is far off. The same range holds for the ambient
+ *   temperature and a Sutherland reference temperature.
+ * - reservoir pressure 100 Pa to 1e8 Pa (1000 bar) absolute: below 100 Pa the mean free path of
+ *   air (about 70 um, from the 68 nm at 1 atm, from memory) is no longer small against small
+ *   bores and the continuum friction laws lose their footing; above 1000 bar no gas is near
+ *   ideal.
+ * - ambient (barometric) pressure 10 kPa to 1 MPa: the atmosphere with room on both sides; a
+ *   barometric pressure written in mbar, hPa or kPa but read as Pa falls outside.
+ * - demand (and injection) at most 1e5 kg/s either way: a hundred times the flow of the largest
+ *   gas trunk lines (about 1000 kg/s); beyond it a value is a unit slip.
+ * - molar mass 1 g/mol to 1 kg/mol: the lightest gas is hydrogen (2.016 g/mol); a vapour of more
+ *   than 1 kg/mol is no gas at pipe conditions.
+ * - dynamic viscosity 1e-7 Pa s to 1e-3 Pa s: gases lie between about 1e-6 and 1e-4 Pa s; a
+ *   value in uPa s or cP read as Pa s falls outside.
+ * - Sutherland constant at most 1e4 K (those of common gases lie between about 70 K and 300 K,
+ *   from memory).
+ */
+export const INPUT_RANGES = Object.freeze({
+  temperature: { low: 20, high: 3000, unit: "K", what: "the ideal-gas model's temperatures" },
+  pressure: { low: 100, high: 1e8, unit: "Pa", what: "absolute pressures of the model" },
+  ambientPressure: { low: 1e4, high: 1e6, unit: "Pa", what: "barometric pressures" },
+  demand: { low: -1e5, high: 1e5, unit: "kg/s", what: "flows of gas networks" },
+  molarMass: { low: 1e-3, high: 1, unit: "kg/mol", what: "molar masses of gases" },
+  viscosity: { low: 1e-7, high: 1e-3, unit: "Pa s", what: "viscosities of gases" },
+  sutherlandConstant: { low: 0, high: 1e4, unit: "K", what: "Sutherland constants" },
+} satisfies Record<string, InputRange>);
+
+/**
+ * The value if it lies in the range (inclusive), otherwise undefined and an issue at `path`
+ * naming the value, the range and what it is of. An undefined value passes through.
+ */
+function inRange(
+  reader: Reader,
+  value: number | undefined,
+  input: QuantityInput | undefined,
+  path: string,
+  range: InputRange,
+): number | undefined {
+  if (value === undefined) return undefined;
+  if (value >= range.low && value <= range.high) return value;
+  reader.fail({
+    code: "value",
+    path,
+    value: input ?? value,
+    message: `${rangeNumber(value)} ${range.unit} is outside the range of ${range.what}: ${rangeNumber(range.low)} to ${rangeNumber(range.high)} ${range.unit} (got ${JSON.stringify(input)})`,
+  });
+  return undefined;
+}
+
+/** A number for a range message: four digits, powers of ten as "1e8" when large or small. */
+function rangeNumber(value: number): string {
+  const rounded = Number(value.toPrecision(4));
+  const size = Math.abs(rounded);
+  if (size !== 0 && (size >= 1e4 || size < 1e-3)) {
+    return rounded.toExponential().replace("e+", "e");
+  }
+  return String(rounded);
+}
+
 function readNode(
   node: NetworkDocument["nodes"][number],
   index: number,
@@ -566,15 +678,35 @@ function readNode(
   const path = jsonPointer("nodes", index);
   const checked: CheckedNode = { id: node.id, kind: node.kind, demand: 0 };
   if (node.kind === "reservoir") {
-    const pressure = reader.quantity(node.pressure, "pressure", `${path}/pressure`);
+    const pressure = inRange(
+      reader,
+      reader.quantity(node.pressure, "pressure", `${path}/pressure`),
+      node.pressure,
+      `${path}/pressure`,
+      INPUT_RANGES.pressure,
+    );
     if (pressure !== undefined) checked.pressure = pressure;
-    const temperature = reader.quantity(node.temperature, "temperature", `${path}/temperature`);
+    const temperature = inRange(
+      reader,
+      reader.quantity(node.temperature, "temperature", `${path}/temperature`),
+      node.temperature,
+      `${path}/temperature`,
+      INPUT_RANGES.temperature,
+    );
     if (temperature !== undefined) checked.temperature = temperature;
     return checked;
   }
+  // The sign decides whether a temperature belongs here, even for a demand out of range.
   const demand = reader.quantity(node.demand, "massFlow", `${path}/demand`);
-  if (demand !== undefined) checked.demand = demand;
-  const temperature = reader.quantity(node.temperature, "temperature", `${path}/temperature`);
+  const demandInRange = inRange(reader, demand, node.demand, `${path}/demand`, INPUT_RANGES.demand);
+  if (demandInRange !== undefined) checked.demand = demandInRange;
+  const temperature = inRange(
+    reader,
+    reader.quantity(node.temperature, "temperature", `${path}/temperature`),
+    node.temperature,
+    `${path}/temperature`,
+    INPUT_RANGES.temperature,
+  );
   if (demand !== undefined && demand < 0) {
     if (node.temperature === undefined) {
       reader.fail({
@@ -603,8 +735,11 @@ function readEdge(
   reader: Reader,
 ): CheckedEdge {
   const path = jsonPointer("edges", index);
+  if (edge.kind !== "pipe") return readComponentEdge(edge, path, reader);
   const length = reader.positive(edge.length, "length", `${path}/length`) ?? Number.NaN;
-  const diameter = reader.positive(edge.diameter, "length", `${path}/diameter`) ?? Number.NaN;
+  // Inside diameter or nominal size and schedule; material; fittings (read-components.ts).
+  const extras = readPipeExtras(edge, path, reader);
+  const diameter = extras.diameter;
   const checked: CheckedEdge = {
     id: edge.id,
     kind: edge.kind,
@@ -612,15 +747,16 @@ function readEdge(
     to: edge.to,
     length,
     diameter,
-    minorLoss: edge.minorLoss ?? 0,
+    minorLoss: (edge.minorLoss ?? 0) + extras.fittingsLoss,
     model: edge.model ?? defaultModel,
   };
+  if (extras.catalog !== undefined) checked.catalog = extras.catalog;
   if (edge.frictionFactor !== undefined) {
     checked.frictionFactor = edge.frictionFactor;
   } else {
     const roughness =
       edge.roughness === undefined
-        ? DEFAULT_ROUGHNESS
+        ? (extras.materialRoughness ?? DEFAULT_ROUGHNESS)
         : reader.quantity(edge.roughness, "length", `${path}/roughness`);
     if (roughness !== undefined) {
       if (roughness < 0) {
@@ -645,8 +781,8 @@ function readEdge(
   if (Number.isFinite(length) && Number.isFinite(diameter) && diameter > length * 1e3) {
     reader.fail({
       code: "value",
-      path: `${path}/diameter`,
-      value: edge.diameter,
+      path: `${path}/${edge.diameter === undefined ? "size" : "diameter"}`,
+      value: edge.diameter ?? edge.size ?? diameter,
       message: `a diameter of ${diameter} m on a pipe ${length} m long is not a pipe; check the units`,
     });
   }

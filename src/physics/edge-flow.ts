@@ -7,6 +7,11 @@
  * each function here; the solver itself does not change. See DEVELOPERS.md.
  */
 import type { Gas } from "../gas/gas-types.js";
+import type { ComponentElement } from "./components/component-elements.js";
+import {
+  componentSquaredLawResistance,
+  evaluateComponentFlow,
+} from "./components/component-flow.js";
 import { endStatesOf, outletForMassFlow, type PipeEndState } from "./pipe.js";
 import {
   evaluatePipeFlow,
@@ -20,8 +25,8 @@ export interface PipeElement extends PipeGeometry {
   kind: "pipe";
 }
 
-/** Every edge kind, as the solver sees it (SI values). */
-export type EdgeElement = PipeElement;
+/** Every edge kind, as the solver sees it (SI values): a pipe or a component. */
+export type EdgeElement = PipeElement | ComponentElement;
 
 /**
  * Flow through an edge from its upstream end (stagnation state p0, T0) to its downstream end at
@@ -29,7 +34,9 @@ export type EdgeElement = PipeElement;
  *
  * @param forward - true when the upstream end is the edge's declared `from` node (components
  *   that pass flow one way only need it; pipes do not)
- * @param needCapacity - also compute the capacity (the largest flow) when not near choking
+ * @param needCapacity - also compute the capacity (the largest flow) when not near choking; for
+ *   a component, also the Mach numbers in its connecting pipes (results need both, Newton
+ *   iterations neither)
  */
 export function evaluateEdgeFlow(
   element: EdgeElement,
@@ -41,7 +48,18 @@ export function evaluateEdgeFlow(
   out: PipeFlowEvaluation,
   needCapacity: boolean,
 ): PipeFlowEvaluation {
-  void forward;
+  if (element.kind !== "pipe") {
+    return evaluateComponentFlow(
+      element,
+      gas,
+      upstreamPressure,
+      upstreamTemperature,
+      downstreamPressure,
+      forward,
+      out,
+      needCapacity,
+    );
+  }
   return evaluatePipeFlow(
     element,
     gas,
@@ -62,6 +80,9 @@ export function squaredLawResistance(
   gasConstantTimesTemperature: number,
   turbulentFrictionFactor: (relativeRoughness: number) => number,
 ): number {
+  if (element.kind !== "pipe") {
+    return componentSquaredLawResistance(element, gasConstantTimesTemperature);
+  }
   const area = 0.25 * Math.PI * element.diameter * element.diameter;
   const factor = Number.isNaN(element.fixedFrictionFactor)
     ? turbulentFrictionFactor(element.roughness / element.diameter)
@@ -73,7 +94,8 @@ export function squaredLawResistance(
 /**
  * Exit static pressure of a given flow from an upstream plenum (the inverse relation), for the
  * independent check of a solution; +Infinity when the flow cannot pass; NaN when the element has
- * no such check. `scratch` receives the intermediate state.
+ * no such check (components: their relation is explicit in the node pressures, so the balance
+ * check covers them). `scratch` receives the intermediate state.
  */
 export function exitPressureForFlow(
   element: EdgeElement,
@@ -83,6 +105,7 @@ export function exitPressureForFlow(
   massFlow: number,
   scratch: PipeFlowEvaluation,
 ): number {
+  if (element.kind !== "pipe") return Number.NaN;
   const passes = outletForMassFlow(
     element,
     gas,
@@ -101,5 +124,18 @@ export function edgeEndStates(
   upstreamTemperature: number,
   evaluation: PipeFlowEvaluation,
 ): { inlet: PipeEndState; outlet: PipeEndState } {
-  return endStatesOf(gas, element.model, upstreamTemperature, evaluation);
+  // A component's evaluation holds the states in its connecting pipes (adiabatic: T0 unchanged).
+  const model = element.kind === "pipe" ? element.model : "adiabatic";
+  return endStatesOf(gas, model, upstreamTemperature, evaluation);
+}
+
+/**
+ * Highest pressure a first guess should give the junction at an edge's declared `to` end [Pa]:
+ * for a regulator, the middle of its proportional band (below the setpoint, where it regulates);
+ * +Infinity for every other edge. A regulator's flow does not change with its downstream pressure
+ * above the setpoint (it is closed), so Newton cannot leave a first guess there.
+ */
+export function firstGuessPressureCeiling(element: EdgeElement): number {
+  if (element.kind !== "regulator") return Number.POSITIVE_INFINITY;
+  return element.setpoint - 0.5 * element.proportionalBand;
 }

@@ -3,6 +3,7 @@
  * of the solver, and the design-limit warnings.
  */
 import type { DesignLimits } from "../input/document-types.js";
+import { componentDetails } from "../physics/components/component-flow.js";
 import {
   type EdgeElement,
   edgeEndStates,
@@ -91,12 +92,12 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     }
 
     const ends = edgeEndStates(element, system.gas, tUp, evaluation);
-    edges.push({
+    const result: EdgeResult = {
       id: edge.id,
       kind: edge.kind,
       from: edge.from,
       to: edge.to,
-      model: element.model,
+      model: element.kind === "pipe" ? element.model : "adiabatic",
       massFlow: signed === 0 ? 0 : signed,
       choked: evaluation.choked,
       chokeRatio: evaluation.choked ? 1 : evaluation.capacity > 0 ? flow / evaluation.capacity : 0,
@@ -106,7 +107,13 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
       inlet: ends.inlet,
       outlet: ends.outlet,
       pressureDrop: pUp - pDown,
-    });
+    };
+    if (element.kind !== "pipe") {
+      result.component = componentDetails(element, system.gas, pUp, pDown, forward, evaluation);
+    } else if (edge.kind === "pipe" && edge.catalog !== undefined) {
+      result.catalog = { ...edge.catalog };
+    }
+    edges.push(result);
   });
 
   const throughput = networkThroughput(system, netOutflow);
@@ -196,9 +203,14 @@ export function designWarnings(
       warnings.push({
         code: "choked",
         edge: edge.id,
-        message: `edge ${edge.id} is choked: exit Mach ${edge.outlet.mach.toFixed(3)}, flow ${Math.abs(edge.massFlow).toPrecision(4)} kg/s set by its upstream state; exit pressure ${edge.outlet.pressure.toPrecision(6)} Pa is above the downstream node's`,
+        message:
+          edge.component === undefined
+            ? `edge ${edge.id} is choked: exit Mach ${edge.outlet.mach.toFixed(3)}, flow ${Math.abs(edge.massFlow).toPrecision(4)} kg/s set by its upstream state; exit pressure ${edge.outlet.pressure.toPrecision(6)} Pa is above the downstream node's`
+            : `${edge.kind} ${edge.id} is choked (critical flow): flow ${Math.abs(edge.massFlow).toPrecision(4)} kg/s set by its upstream state alone; a lower downstream pressure does not raise it`,
       });
     }
+    const closed = closedComponentMessage(edge);
+    if (closed !== undefined) warnings.push({ code: "closed", edge: edge.id, message: closed });
     const mach = Math.max(edge.inlet.mach, edge.outlet.mach);
     if (limits.maxMach !== undefined && mach > limits.maxMach) {
       warnings.push({
@@ -249,4 +261,20 @@ export function designWarnings(
     });
   }
   return warnings;
+}
+
+/** The warning text of a closed check valve or regulator, or undefined. */
+function closedComponentMessage(edge: EdgeResult): string | undefined {
+  const details = edge.component;
+  if (details === undefined) return undefined;
+  const leakage = `${Math.abs(edge.massFlow).toPrecision(3)} kg/s`;
+  if (details.kind === "check" && details.state === "closed") {
+    return `check valve ${edge.id} is closed: the pressure at ${edge.to} is above that at ${edge.from} by ${edge.pressureDrop.toPrecision(4)} Pa, so only its leakage of ${leakage} passes back`;
+  }
+  if (details.kind === "regulator" && details.state === "closed") {
+    return edge.massFlow < 0
+      ? `regulator ${edge.id} is closed against reverse flow: the pressure at ${edge.to} is above that at ${edge.from}; only its leakage of ${leakage} passes back`
+      : `regulator ${edge.id} is closed: the pressure at ${edge.to} is at or above its setpoint (by ${details.setpointDeviation.toPrecision(4)} Pa); only its seat leakage of ${leakage} passes, and with no consumption downstream that leakage alone sets the pressure there`;
+  }
+  return undefined;
 }

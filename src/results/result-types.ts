@@ -2,9 +2,23 @@
  * The results contract of a network solve. All numbers SI: Pa absolute, K, kg/s, m/s, kg/m3.
  * Extend it; do not rename it.
  */
+import type {
+  CheckValveDetails,
+  ComponentDetails,
+  RegulatorDetails,
+  RestrictionDetails,
+  ValveDetails,
+} from "../physics/components/component-flow.js";
 import type { PipeEndState } from "../physics/pipe.js";
 
-export type { PipeEndState };
+export type {
+  CheckValveDetails,
+  ComponentDetails,
+  PipeEndState,
+  RegulatorDetails,
+  RestrictionDetails,
+  ValveDetails,
+};
 
 /** Codes of the warnings a result can carry. */
 export type WarningCode =
@@ -23,7 +37,9 @@ export type WarningCode =
   | "not-converged"
   | "no-solution"
   /** A solution reached by ramping the demands up from a smaller case. */
-  | "continuation";
+  | "continuation"
+  /** A check valve or regulator is closed: only its leakage passes. */
+  | "closed";
 
 /** A warning attached to a result, naming the node or edge it is about. */
 export interface SolverWarning {
@@ -49,10 +65,10 @@ export interface NodeResult {
 /** Result for one edge. */
 export interface EdgeResult {
   id: string;
-  kind: "pipe";
+  kind: "pipe" | "orifice" | "nozzle" | "valve" | "regulator" | "check";
   from: string;
   to: string;
-  /** Pipe model used. */
+  /** Pipe model used; "adiabatic" for every component (no heat exchange). */
   model: "adiabatic" | "isothermal";
   /** [kg/s], positive from `from` to `to`. */
   massFlow: number;
@@ -61,16 +77,25 @@ export interface EdgeResult {
   chokeRatio: number;
   /** Largest flow the edge passes for its present upstream state [kg/s]. */
   capacity: number;
-  /** Reynolds number G D / mu(T0 upstream) [-]. */
+  /** Reynolds number G D / mu(T0 upstream) [-]; a component's in its upstream connecting pipe
+   * (or its bore; 0 for a valve given without pipe diameters). */
   reynolds: number;
-  /** Darcy friction factor [-]. */
+  /** Darcy friction factor [-]; 0 for a component. */
   frictionFactor: number;
-  /** State just inside the pipe at its upstream end (in the direction of flow). */
+  /** State just inside the pipe at its upstream end (in the direction of flow); for a component,
+   * in its upstream connecting pipe (at rest when no pipe diameter is given). */
   inlet: PipeEndState;
-  /** State at its downstream end (in the direction of flow). */
+  /** State at its downstream end (in the direction of flow); for a component, in its downstream
+   * connecting pipe. */
   outlet: PipeEndState;
   /** Pressure of the upstream node minus that of the downstream node [Pa], >= 0. */
   pressureDrop: number;
+  /** A component's own figures (absent for a pipe): pressure ratio and permanent pressure loss
+   * of an orifice or nozzle, opening and expansion factor of a valve, the state of a regulator
+   * or check valve, leakage of a closed one. */
+  component?: ComponentDetails;
+  /** A pipe given by nominal size: its NPS [in], DN and schedule. */
+  catalog?: { nominalPipeSize: number; nominalDiameter: number; schedule: string };
 }
 
 /** How the solve ended. */

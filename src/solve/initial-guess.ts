@@ -8,7 +8,11 @@
  * Each round freezes |m| and solves the resulting linear network for P = p^2; |m| is then
  * averaged with the new flows (damping that keeps the rounds from oscillating).
  */
-import { squaredLawResistance } from "../physics/edge-flow.js";
+import {
+  type EdgeElement,
+  firstGuessPressureCeiling,
+  squaredLawResistance,
+} from "../physics/edge-flow.js";
 import { darcyFrictionFactor } from "../physics/friction.js";
 import type { NetworkSystem } from "./network-system.js";
 import { NO_FLOW_WEIGHT } from "./network-system.js";
@@ -101,6 +105,16 @@ export function initialGuess(system: NetworkSystem): Float64Array {
         difference / ((resistance[e] as number) * Math.max(flowMagnitude[e] as number, 1e-12));
       signedFlow[e] = flow;
       flowMagnitude[e] = 0.5 * ((flowMagnitude[e] as number) + Math.abs(flow));
+    }
+  }
+
+  // A regulator's downstream junction no higher than its band: above it the regulator is closed
+  // and its flow does not respond to pressure, so Newton could not leave such a guess.
+  for (let e = 0; e < edgeCount; e++) {
+    const ceiling = firstGuessPressureCeiling(system.elements[e] as EdgeElement);
+    const to = model.edgeTo[e] as number;
+    if (model.isReservoir[to] !== 1 && (squared[to] as number) > ceiling * ceiling) {
+      squared[to] = ceiling * ceiling;
     }
   }
 

@@ -45,6 +45,13 @@ export interface NewtonOutcome {
 /** Largest fraction by which one step may change a pressure or a temperature. */
 const MAX_PRESSURE_CHANGE = 0.5;
 const MAX_TEMPERATURE_CHANGE = 0.3;
+/**
+ * The most the mass tolerance gives way to the flows' round-off (1e-6 of the throughput): a
+ * network whose flows cannot be resolved better than that in double precision (a huge pipe in
+ * creeping flow beside small ones) is reported not converged rather than solved loosely.
+ */
+export const ROUND_OFF_CEILING = 1e-6;
+
 /** Largest accepted temperature error of a junction, relative to T_ref (0.3 mK at 300 K). */
 export const TEMPERATURE_TOLERANCE = 1e-6;
 /** Armijo constant and smallest step of the line search. */
@@ -65,7 +72,10 @@ function largest(residual: Float64Array, offset: number): number {
 function massBalanced(evaluation: SystemEvaluation, tolerance: number): boolean {
   const residual = evaluation.residual;
   for (let j = 0; 2 * j < residual.length; j++) {
-    const allowed = Math.max(tolerance, evaluation.massNoise[j] as number);
+    const allowed = Math.max(
+      tolerance,
+      Math.min(evaluation.massNoise[j] as number, ROUND_OFF_CEILING),
+    );
     if (!(Math.abs(residual[2 * j] as number) <= allowed)) return false;
   }
   return true;

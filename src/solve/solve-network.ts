@@ -18,7 +18,7 @@ import {
   nodePressure,
   nodeTemperature,
 } from "./network-system.js";
-import { type NewtonOutcome, newtonSolve } from "./newton.js";
+import { type NewtonOutcome, newtonSolve, ROUND_OFF_CEILING } from "./newton.js";
 
 /** Options of {@link solveNetwork}. */
 export interface SolveOptions {
@@ -151,7 +151,10 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
   const converged = status === "converged";
   if (converged) {
     const tolerance = CHECK_MARGIN * settings.tolerance;
-    const noise = outcome.evaluation.massNoise.reduce((a, b) => Math.max(a, b), 0);
+    const noise = Math.min(
+      outcome.evaluation.massNoise.reduce((a, b) => Math.max(a, b), 0),
+      ROUND_OFF_CEILING,
+    );
     const b = state.balance;
     if (
       !(b.largestMassImbalance <= tolerance + CHECK_MARGIN * noise) ||
