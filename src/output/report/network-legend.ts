@@ -8,6 +8,7 @@ import type { NetworkResult } from "../../results/result-types.js";
 import { displayUnit, type UnitSetName } from "../display-units.js";
 import { formatNumber } from "../format-number.js";
 import { type ColorScale, EMBER_ANCHORS } from "./color-scale.js";
+import { componentGlyph, isComponentKind } from "./component-glyph.js";
 import { escapeMarkup } from "./escape-markup.js";
 import { INK, type NodeSymbolKind, nodeSymbolSvg, SYMBOL_NAMES } from "./node-symbols.js";
 import { arrowHead, chokedOverlay, pipeWidth } from "./pipe-style.js";
@@ -155,6 +156,13 @@ export function legendSvg(
     `</g>`,
     `<text class="mn-tick" x="${chokedX + 68}" y="${rowY + 4}">CHOKED pipe; arrow: flow</text>`,
   );
+  if (document.edges.some((edge) => isComponentKind(edge.kind))) {
+    const glyphX = chokedX + 250;
+    parts.push(
+      componentGlyph("valve", glyphX, rowY),
+      `<text class="mn-tick" x="${glyphX + 14}" y="${rowY + 4}">component: O orifice, N nozzle, V valve, R regulator, C check valve</text>`,
+    );
+  }
   parts.push(`</g>`);
   return parts.join("");
 }

@@ -11,6 +11,7 @@ import { displayUnit, type UnitSetName } from "../display-units.js";
 import { formatNumber } from "../format-number.js";
 import { NOT_A_SOLUTION, notASolutionReason } from "../result-table.js";
 import { type ColorQuantity, colorScaleFor, edgeColorValue, emberColor } from "./color-scale.js";
+import { componentGlyph, isComponentKind, polylineMidpoint } from "./component-glyph.js";
 import { detailsText, edgeDetails, nodeDetails } from "./element-details.js";
 import { escapeMarkup } from "./escape-markup.js";
 import { type LaidOutEdge, LINE_HEIGHT, layoutNetwork } from "./network-layout.js";
@@ -153,8 +154,9 @@ export function networkSvgMarkup(
     const value = values[laid.index] as number;
     const color = emberColor(scale.position(value));
     const lineWidth = lineWidths[laid.index] as number;
+    const kind = document.edges[laid.index]?.kind ?? "pipe";
     const details = detailsText(
-      `pipe ${edge.id}`,
+      `${kind} ${edge.id}`,
       edgeDetails(edge, document.edges[laid.index], units),
     );
     const points = pointsAttribute(laid.points);
@@ -174,6 +176,10 @@ export function networkSvgMarkup(
         height: laid.labelHeight,
       };
       parts.push(arrowHead(laid.points, lineWidth, label));
+    }
+    if (isComponentKind(kind)) {
+      const middle = polylineMidpoint(laid.points);
+      parts.push(componentGlyph(kind, middle.x, middle.y));
     }
     parts.push(edgeLabelSvg(laid, edgeLabels[laid.index] ?? [edge.id]), "</g>");
   }
