@@ -40,6 +40,9 @@ export const DEFAULT_LIMITS: Readonly<DesignLimits> = Object.freeze({
   maxMomentumFlux: 200_000,
 });
 
+/** Longest pipe accepted [m]: 10 000 km, beyond any gas transmission line. */
+export const MAX_PIPE_LENGTH = 1e7;
+
 /** Default absolute roughness [m]: carbon steel, not corroded (NORSOK P-001 section 5.2.2). */
 export const DEFAULT_ROUGHNESS = 0.05e-3;
 
@@ -736,7 +739,16 @@ function readEdge(
 ): CheckedEdge {
   const path = jsonPointer("edges", index);
   if (edge.kind !== "pipe") return readComponentEdge(edge, path, reader);
-  const length = reader.positive(edge.length, "length", `${path}/length`) ?? Number.NaN;
+  let length = reader.positive(edge.length, "length", `${path}/length`) ?? Number.NaN;
+  if (length > MAX_PIPE_LENGTH) {
+    reader.fail({
+      code: "value",
+      path: `${path}/length`,
+      value: edge.length,
+      message: `a pipe ${length} m long is beyond any gas line (at most ${MAX_PIPE_LENGTH} m, 10 000 km); check the units`,
+    });
+    length = Number.NaN;
+  }
   // Inside diameter or nominal size and schedule; material; fittings (read-components.ts).
   const extras = readPipeExtras(edge, path, reader);
   const diameter = extras.diameter;
