@@ -165,8 +165,12 @@ function dedupe(issues: InputIssue[]): InputIssue[] {
   });
 }
 
-/** Reword one ajv error as a user-facing line, keeping ajv's path. */
-function schemaIssue(error: ErrorObject): InputIssue | undefined {
+/**
+ * Reword one ajv error as a user-facing line, keeping ajv's path; undefined for the summary
+ * errors (`if`, `anyOf`, `allOf`) whose branches report the real problem. Shared by every
+ * document machnet validates (networks, studies).
+ */
+export function schemaIssue(error: ErrorObject): InputIssue | undefined {
   const path = error.instancePath;
   const params = error.params as Record<string, unknown>;
   switch (error.keyword) {

@@ -6,13 +6,13 @@
  * gets the network document from the caller.
  */
 
-import { Ajv2020, type ErrorObject } from "ajv/dist/2020.js";
+import { Ajv2020 } from "ajv/dist/2020.js";
 import type { CheckedDocument, QuantityInput } from "../input/document-types.js";
 import type { InputIssue } from "../input/issues.js";
 import { catalogPipe, PIPE_SCHEDULES, parseNominalSize } from "../input/pipe-catalog.js";
 import { PIPE_DIMENSIONS } from "../input/pipe-catalog-data.js";
 import { parseQuantity, type QuantityKind } from "../input/quantity.js";
-import { parseJsonText, readNetworkDocument } from "../input/read-document.js";
+import { parseJsonText, readNetworkDocument, schemaIssue } from "../input/read-document.js";
 import { studySchema } from "../input/study-schema.js";
 import { buildNetwork } from "../model/build-network.js";
 import type { DisplayKind } from "../output/display-units.js";
@@ -79,81 +79,13 @@ export function validateStudySchema(value: unknown): StudyIssue[] {
   const issues: StudyIssue[] = [];
   for (const error of errors) {
     const issue = schemaIssue(error);
+    if (issue === undefined) continue;
     const key = `${issue.path}\u0000${issue.message}`;
     if (seen.has(key)) continue;
     seen.add(key);
     issues.push(issue);
   }
   return sortStudyIssues(issues);
-}
-
-/** One ajv error as a user-facing line, at ajv's path. */
-function schemaIssue(error: ErrorObject): StudyIssue {
-  const path = error.instancePath;
-  const params = error.params as Record<string, unknown>;
-  switch (error.keyword) {
-    case "required":
-      return {
-        code: "schema",
-        path,
-        message: `missing required field "${String(params.missingProperty)}"`,
-      };
-    case "additionalProperties": {
-      const properties = (error.parentSchema as { properties?: Record<string, unknown> })
-        ?.properties;
-      const allowed = properties
-        ? `; allowed fields here: ${Object.keys(properties).join(", ")}`
-        : "";
-      return {
-        code: "schema",
-        path: `${path}/${String(params.additionalProperty)}`,
-        message: `unknown field "${String(params.additionalProperty)}"${allowed}`,
-      };
-    }
-    case "type": {
-      const expected = String(params.type);
-      const wanted =
-        expected === "number,string"
-          ? 'a number in SI units or a quantity string such as "80 mm"'
-          : `of type ${expected.replace(",", " or ")}`;
-      return { code: "schema", path, message: `must be ${wanted}` };
-    }
-    case "enum":
-      return {
-        code: "schema",
-        path,
-        message: `must be one of ${(params.allowedValues as unknown[]).map((v) => JSON.stringify(v)).join(", ")}`,
-      };
-    case "minItems":
-      return {
-        code: "schema",
-        path,
-        message: `must have at least ${String(params.limit)} item(s)`,
-      };
-    case "maxItems":
-      return { code: "schema", path, message: `must have at most ${String(params.limit)} items` };
-    case "minLength":
-      return { code: "schema", path, message: "must not be empty" };
-    case "maxLength":
-      return {
-        code: "schema",
-        path,
-        message: `must be at most ${String(params.limit)} characters long`,
-      };
-    case "minimum":
-    case "maximum":
-    case "exclusiveMinimum":
-    case "exclusiveMaximum":
-      return {
-        code: "schema",
-        path,
-        message: `must be ${String(params.comparison)} ${String(params.limit)}`,
-      };
-    case "integer":
-      return { code: "schema", path, message: "must be a whole number" };
-    default:
-      return { code: "schema", path, message: error.message ?? "is not valid here" };
-  }
 }
 
 /** Read a study from JSON text (see {@link readStudyDocument}). */
