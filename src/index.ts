@@ -33,8 +33,16 @@ export type {
   QuantityInput,
   SettingsInput,
 } from "./input/document-types.js";
+export { FITTING_TYPES, type FittingType, fittingLossCoefficient } from "./input/fittings.js";
 export { formatIssue, InputError, type InputIssue, type InputIssueCode } from "./input/issues.js";
 export { networkSchema } from "./input/network-schema.js";
+export {
+  catalogPipe,
+  PIPE_MATERIAL_NAMES,
+  PIPE_MATERIALS,
+  PIPE_SCHEDULES,
+  parseNominalSize,
+} from "./input/pipe-catalog.js";
 export {
   parseQuantity,
   type QuantityContext,
@@ -42,6 +50,7 @@ export {
   type QuantityNote,
   type QuantityResult,
 } from "./input/quantity.js";
+export { KV_PER_CV } from "./input/read-components.js";
 export {
   DEFAULT_AMBIENT,
   DEFAULT_ROUGHNESS,
@@ -72,6 +81,25 @@ export {
   type ReportOptions,
   renderReportHtml,
 } from "./output/report/index.js";
+export type { ComponentDetails } from "./physics/components/component-flow.js";
+// Components, the pipe catalog and fittings
+export {
+  NOZZLE_DISCHARGE_COEFFICIENT,
+  nozzleCriticalPressureRatio,
+  nozzleExpansibility,
+  nozzleMassFlow,
+} from "./physics/components/nozzle.js";
+export {
+  ORIFICE_DISCHARGE_COEFFICIENT,
+  orificeExpansibility,
+  orificeMassFlow,
+} from "./physics/components/orifice.js";
+export { pressureLossRatio } from "./physics/components/restriction.js";
+export {
+  valveCharacteristicRatio,
+  valveExpansionFactor,
+  valveGasMassFlow,
+} from "./physics/components/valve.js";
 export * from "./physics/fanno.js";
 export * from "./physics/friction.js";
 // One-dimensional relations and one pipe
