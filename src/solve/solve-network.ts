@@ -158,7 +158,7 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
     const b = state.balance;
     if (
       !(b.largestMassImbalance <= tolerance + CHECK_MARGIN * noise) ||
-      !(b.largestEnergyImbalance <= tolerance) ||
+      !(b.largestEnergyImbalance <= tolerance + CHECK_MARGIN * noise) ||
       !(b.largestExitPressureMismatch <= EXIT_PRESSURE_TOLERANCE)
     ) {
       throw new InternalCheckError(

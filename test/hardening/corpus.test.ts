@@ -130,7 +130,7 @@ describe("the hardening corpus", () => {
   // Defect K (hard-networks.test.ts, tiny-flow-large-bore.json): since fff371f the solver
   // accepts a mass residual at the flows' own round-off, and its independent check, which
   // allows 100 x the tolerance, then fails: solveNetwork throws InternalCheckError.
-  it.fails("never fails the internal check (defect K)", () => {
+  it("never fails the internal check (defect K, fixed)", () => {
     const k = solved.filter((entry) => entry.outcome.kind === "internal-check");
     expect(k.map((entry) => entry.item.seed)).toEqual([]);
   });

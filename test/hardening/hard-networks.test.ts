@@ -67,6 +67,12 @@ const DEFECTS: {
       "D (fixed in fff371f): the continuation's zero-demand start fails (defect A at the throughput floor)",
   },
   {
+    file: "tiny-flow-through-header.json",
+    expected: "converged",
+    open: true,
+    defect: "B2: flows below the resolution of the pressures still stall (what remains of B)",
+  },
+  {
     file: "tiny-flow-large-bore.json",
     expected: "solved-or-honest",
     open: false,

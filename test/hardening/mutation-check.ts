@@ -88,10 +88,12 @@ function parentExists(value: unknown, pointer: string): boolean {
 /**
  * Check one mutated case; returns undefined when it behaves, else what went wrong (for the
  * failure message). Also checks that checkNetwork agrees with solveNetwork about validity.
+ * `tally` counts the outcomes by kind.
  */
-export function mutationProblem(c: MutatedCase): string | undefined {
+export function mutationProblem(c: MutatedCase, tally?: Map<string, number>): string | undefined {
   const { document, text } = buildCase(c);
   const outcome = solveOutcome(document, { timeLimitMs: MUTATION_TIME_LIMIT_MS });
+  tally?.set(outcome.kind, (tally.get(outcome.kind) ?? 0) + 1);
   let checked: ReturnType<typeof checkNetwork>;
   try {
     checked = checkNetwork(document);

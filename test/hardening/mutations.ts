@@ -255,7 +255,11 @@ export type Mutation =
   | { kind: "set-id"; at: number; value: string }
   | { kind: "empty-list"; list: "nodes" | "edges" }
   | { kind: "swap-kind"; at: number }
-  | { kind: "scale"; at: number; factor: number };
+  | { kind: "scale"; at: number; factor: number }
+  /** Valid-keeping changes, so that the solver gets varied documents too. */
+  | { kind: "perturb"; at: number; factor: number }
+  | { kind: "flip-edge"; at: number }
+  | { kind: "reverse-list"; list: "nodes" | "edges" };
 
 export const mutation: fc.Arbitrary<Mutation> = fc.oneof(
   { weight: 3, arbitrary: fc.record({ kind: fc.constant("delete"), at: fc.nat() }) },
@@ -285,6 +289,22 @@ export const mutation: fc.Arbitrary<Mutation> = fc.oneof(
       kind: fc.constant("scale"),
       at: fc.nat(),
       factor: fc.constantFrom(0, -1, 1e-300, 1e-12, 1e-6, 1e3, 1e6, 1e12, 1e300, 1.000001),
+    }),
+  },
+  {
+    weight: 6,
+    arbitrary: fc.record({
+      kind: fc.constant("perturb"),
+      at: fc.nat(),
+      factor: fc.double({ min: 0.3, max: 3, noNaN: true }),
+    }),
+  },
+  { weight: 2, arbitrary: fc.record({ kind: fc.constant("flip-edge"), at: fc.nat() }) },
+  {
+    weight: 1,
+    arbitrary: fc.record({
+      kind: fc.constant("reverse-list"),
+      list: fc.constantFrom("nodes", "edges"),
     }),
   },
 ) as fc.Arbitrary<Mutation>;
@@ -361,6 +381,29 @@ export function applyMutation(doc: Record<string, unknown>, m: Mutation): void {
     if (place) (place[0] as Record<string, unknown>)[place[1] as string] = m.value;
     return;
   }
+  if (m.kind === "reverse-list") {
+    const list = doc[m.list];
+    if (Array.isArray(list)) list.reverse();
+    return;
+  }
+  if (m.kind === "flip-edge") {
+    const edges = doc.edges;
+    if (!Array.isArray(edges) || edges.length === 0) return;
+    const edge = edges[m.at % edges.length] as Record<string, unknown> | null;
+    if (typeof edge === "object" && edge !== null) [edge.from, edge.to] = [edge.to, edge.from];
+    return;
+  }
+  if (m.kind === "perturb") {
+    // A number, or the number of a quantity, times a factor near 1: the document stays valid
+    // (mostly) and the physics changes.
+    const numbers = all.filter(([container, key]) => {
+      const value = (container as Record<string | number, unknown>)[key];
+      return typeof value === "number" || (typeof value === "string" && /^\d/.test(value));
+    });
+    const place = numbers[m.at % Math.max(numbers.length, 1)];
+    if (place) applyMutation(doc, { kind: "scale", at: all.indexOf(place), factor: m.factor });
+    return;
+  }
   if (m.kind === "swap-kind") {
     const kinds = all.filter(([, key]) => key === "kind");
     const place = kinds[m.at % Math.max(kinds.length, 1)];
@@ -382,7 +425,9 @@ export function applyMutation(doc: Record<string, unknown>, m: Mutation): void {
       else delete container[key as string];
       return;
     case "replace":
-      set(m.value);
+      // A copy: later mutations must not change the generated value (the case is built again
+      // for each check and for the report of a failure).
+      set(copy(m.value));
       return;
     case "duplicate":
       if (Array.isArray(container)) container.splice(key as number, 0, copy(get()));
