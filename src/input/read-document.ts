@@ -18,7 +18,7 @@ import type {
   QuantityInput,
   SolverSettings,
 } from "./document-types.js";
-import { InputError, type InputIssue, jsonPointer, sortIssues } from "./issues.js";
+import { InputError, type InputIssue, jsonPointer, pointerSegment, sortIssues } from "./issues.js";
 import { networkSchema } from "./network-schema.js";
 import { parseQuantity, type QuantityKind } from "./quantity.js";
 import { readComponentEdge, readPipeExtras } from "./read-components.js";
@@ -184,7 +184,7 @@ export function schemaIssue(error: ErrorObject): InputIssue | undefined {
       const allowed = allowedFields(error.parentSchema);
       return {
         code: "schema",
-        path: `${path}/${String(params.additionalProperty)}`,
+        path: `${path}/${pointerSegment(String(params.additionalProperty))}`,
         message: `unknown field "${String(params.additionalProperty)}"${allowed ? `; allowed fields here: ${allowed}` : ""}`,
       };
     }
