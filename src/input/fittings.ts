@@ -93,10 +93,11 @@ const CRANE_GRADUAL_ANGLE = 45;
  * @param angle - included cone angle [degrees], 0 < angle <= 180
  * @returns K [-] referred to the velocity head in the pipe of `pipeDiameter`
  * @remarks Turbulent flow, incompressible loss coefficient. Source: Crane Co., Flow of Fluids
- *   Through Valves, Fittings, and Pipe, Technical Paper No. 410 (TP-410M), 2009, p. A-26,
- *   formulas 1 to 4 (Crane refers K to the larger pipe with the smaller as 1; the formulas here
- *   are the same divided by Crane's 1 / beta^4), as implemented by python3-fluids 1.0.22
- *   contraction_conical_Crane and diffuser_conical(method="Crane").
+ *   Through Valves, Fittings, and Pipe, Technical Paper No. 410 (TP-410M), 2009, formulas 1 to 4
+ *   as numbered in python3-fluids 1.0.22's source (the page was not checked). Crane refers K to
+ *   the larger pipe, K_large = K_small / beta^4 (python3-fluids' notes to
+ *   contraction_conical_Crane); python3-fluids 1.0.22 contraction_conical_Crane and
+ *   diffuser_conical(method="Crane") return K_small, as the formulas above.
  * @example reducerLossCoefficient("reducer", 0.07792, 0.05248, 180) // 1.3277 (3 x 2 in Sch 40
  *   sudden contraction; checked in test/input/reducers.test.ts)
  */
