@@ -33,7 +33,15 @@ export type {
   QuantityInput,
   SettingsInput,
 } from "./input/document-types.js";
-export { FITTING_TYPES, type FittingType, fittingLossCoefficient } from "./input/fittings.js";
+export {
+  FITTING_TYPES,
+  type FittingType,
+  fittingLossCoefficient,
+  REDUCER_TYPES,
+  type ReducerType,
+  reducerAddedLossCoefficient,
+  reducerLossCoefficient,
+} from "./input/fittings.js";
 export { formatIssue, InputError, type InputIssue, type InputIssueCode } from "./input/issues.js";
 export { networkSchema } from "./input/network-schema.js";
 export {

@@ -93,14 +93,15 @@ function buildProgram(io: FullCliIo, runtime: StudyRuntime, run: (code: number) 
     .addOption(
       new Option(
         "--table <table>",
-        "only this table (table format: default both; csv: default edges)",
+        "only this table (table format: default all; csv: default edges)",
       ).choices([...CSV_TABLE_NAMES]),
     )
     .addHelpText(
       "after",
       `
 --format json prints the result object in SI units (Pa absolute, K, kg/s, m/s).
---format csv prints one table: a header row with units in brackets, one row per edge (or node).`,
+--format csv prints one table: a header row with units in brackets, one row per edge (or node,
+or component with its own figures).`,
     )
     .action(async (file: string, options: SolveCommandOptions) => {
       run(await solveCommand(file, options, io));

@@ -35,8 +35,14 @@ export function reportText(report: ResultReport, table: CsvTableName | undefined
   const parts: string[] = [];
   if (report.marker !== undefined) parts.push(report.marker, "");
   parts.push(report.heading, "");
-  if (table !== "edges") parts.push(renderTable(report.nodes), "");
-  if (table !== "nodes") parts.push(renderTable(report.edges), "");
+  if (table === undefined || table === "nodes") parts.push(renderTable(report.nodes), "");
+  if (table === undefined || table === "edges") parts.push(renderTable(report.edges), "");
+  if (table === undefined || table === "components") {
+    for (const components of report.components) parts.push(renderTable(components), "");
+    if (table === "components" && report.components.length === 0) {
+      parts.push("no components in this network", "");
+    }
+  }
   if (report.warnings.length > 0) parts.push(...report.warnings, "");
   parts.push(report.summary, report.caution);
   return linesText(parts);

@@ -67,6 +67,14 @@ export interface FittingInput {
   type: string;
   /** @defaultValue 1 */
   count?: number;
+  /** Reducer, expander: included cone angle [degrees], 180 for a sudden step. */
+  angle?: number;
+  /** Reducer, expander: inside diameter of the pipe it leads into. */
+  outletDiameter?: QuantityInput;
+  /** Reducer, expander: nominal size of the pipe it leads into, instead of outletDiameter. */
+  outletSize?: string;
+  /** Reducer, expander: schedule with outletSize. @defaultValue the pipe's own schedule */
+  outletSchedule?: string;
 }
 
 /** Fields every edge has. */

@@ -235,7 +235,7 @@ export const networkSchema = {
             type: "array",
             maxItems: 1000,
             description:
-              "Pipe: fittings by type and count; K by Darby's 3-K method (turbulent), added to minorLoss.",
+              "Pipe: fittings by type and count; K by Darby's 3-K method (turbulent), reducers by Crane TP-410, added to minorLoss.",
             items: {
               type: "object",
               additionalProperties: false,
@@ -243,6 +243,30 @@ export const networkSchema = {
               properties: {
                 type: { enum: FITTING_TYPES },
                 count: { type: "integer", minimum: 1, maximum: 10000, description: "Default 1." },
+                angle: {
+                  type: "number",
+                  exclusiveMinimum: 0,
+                  maximum: 180,
+                  description:
+                    "Reducer, expander: included cone angle in degrees; 180 is a sudden step.",
+                },
+                outletDiameter: {
+                  ...quantity,
+                  description:
+                    "Reducer, expander: inside diameter of the pipe it leads into, at this pipe's `to` end.",
+                },
+                outletSize: {
+                  type: "string",
+                  maxLength: 32,
+                  description:
+                    'Reducer, expander: nominal size of the pipe it leads into ("DN50", "2 in"), instead of outletDiameter.',
+                },
+                outletSchedule: {
+                  type: "string",
+                  maxLength: 8,
+                  description:
+                    "Reducer, expander: schedule with outletSize; default the pipe's own schedule.",
+                },
               },
             },
           },

@@ -14,7 +14,6 @@ import type {
   RestrictionEdgeInput,
   ValveEdgeInput,
 } from "./document-types.js";
-import { type FittingType, fittingLossCoefficient } from "./fittings.js";
 import type { InputIssue } from "./issues.js";
 import {
   catalogPipe,
@@ -24,6 +23,7 @@ import {
   parseNominalSize,
 } from "./pipe-catalog.js";
 import type { QuantityKind } from "./quantity.js";
+import { type FittingPipe, readFittings } from "./read-fittings.js";
 
 /** What the document reader offers (src/input/read-document.ts): quantities to SI, problems. */
 export interface ValueReader {
@@ -110,7 +110,7 @@ export interface PipeExtras {
   diameter: number;
   /** Roughness of its material [m], if a material is given. */
   materialRoughness?: number;
-  /** Sum of the fittings' loss coefficients [-]. */
+  /** Sum of the fittings' loss coefficients [-], referred to the pipe's velocity head. */
   fittingsLoss: number;
   catalog?: { nominalPipeSize: number; nominalDiameter: number; schedule: string };
 }
@@ -199,12 +199,13 @@ export function readPipeExtras(edge: PipeEdgeInput, path: string, reader: ValueR
     }
   }
   if (edge.fittings !== undefined && Number.isFinite(extras.diameter)) {
-    const nominal =
-      extras.catalog?.nominalPipeSize ?? nominalSizeFromInsideDiameter(extras.diameter);
-    for (const fitting of edge.fittings) {
-      extras.fittingsLoss +=
-        (fitting.count ?? 1) * fittingLossCoefficient(fitting.type as FittingType, nominal);
-    }
+    const pipe: FittingPipe = {
+      diameter: extras.diameter,
+      nominalPipeSize:
+        extras.catalog?.nominalPipeSize ?? nominalSizeFromInsideDiameter(extras.diameter),
+    };
+    if (extras.catalog !== undefined) pipe.schedule = extras.catalog.schedule;
+    extras.fittingsLoss = readFittings(edge.fittings, `${path}/fittings`, pipe, reader);
   }
   return extras;
 }

@@ -32,11 +32,12 @@ export interface ResultColumn<Row> {
 }
 
 /** Digits of absolute pressures: resolution 10 Pa at 7 bar(a), finer than a gauge reading. */
-const PRESSURE_DIGITS = 6;
+export const PRESSURE_DIGITS = 6;
 /** Digits of other numbers. */
-const DIGITS = 5;
+export const DIGITS = 5;
 
-function textColumn<Row>(
+/** A left-aligned text column. */
+export function textColumn<Row>(
   label: string,
   name: string,
   value: (row: Row) => string,
@@ -44,7 +45,8 @@ function textColumn<Row>(
   return { label, name, unit: "", align: "left", digits: 0, value };
 }
 
-function numberColumn<Row>(
+/** A right-aligned number column, converted to the unit set's unit of `kind` (null: none). */
+export function numberColumn<Row>(
   label: string,
   name: string,
   units: UnitSetName,

@@ -1,20 +1,26 @@
 /**
- * A network result as CSV text: one table per call (the edges or the nodes), one header row with
- * the unit of each column in brackets, one row per edge or node. Numbers are in the chosen
+ * A network result as CSV text: one table per call (the edges, the nodes or the components), one
+ * header row with the unit of each column in brackets, one row per edge, node or component (its
+ * own figures; those of other kinds empty). Numbers are in the chosen
  * display units at full precision (the shortest text that reads back to the same double).
  * Browser-safe.
  */
 
 import type { NetworkResult } from "../results/result-types.js";
+import { componentCsvColumns, componentEdges } from "./component-columns.js";
 import type { UnitSetName } from "./display-units.js";
 import { edgeColumns, nodeColumns, type ResultColumn } from "./result-columns.js";
 import { NOT_A_SOLUTION, notASolutionReason } from "./result-table.js";
 
 /** Which table a CSV holds. */
-export type CsvTableName = "edges" | "nodes";
+export type CsvTableName = "edges" | "nodes" | "components";
 
 /** The tables {@link resultCsv} can write, in the order to list them. */
-export const CSV_TABLE_NAMES: readonly CsvTableName[] = Object.freeze(["edges", "nodes"]);
+export const CSV_TABLE_NAMES: readonly CsvTableName[] = Object.freeze([
+  "edges",
+  "nodes",
+  "components",
+]);
 
 /** Options of {@link resultCsv}. */
 export interface CsvOptions {
@@ -53,7 +59,7 @@ function csvRows<Row>(columns: ResultColumn<Row>[], rows: readonly Row[]): strin
 }
 
 /**
- * A result's edge or node table as CSV text, lines ending in "\n".
+ * A result's edge, node or component table as CSV text, lines ending in "\n".
  *
  * When the result is not a solution the first line is a comment,
  * `# NOT A SOLUTION: <why>`; otherwise the first line is the header.
@@ -69,7 +75,9 @@ export function resultCsv(result: NetworkResult, options: CsvOptions = {}): stri
   const lines =
     table === "nodes"
       ? csvRows(nodeColumns(result, units), result.nodes)
-      : csvRows(edgeColumns(units), result.edges);
+      : table === "components"
+        ? csvRows(componentCsvColumns(units), componentEdges(result.edges))
+        : csvRows(edgeColumns(units), result.edges);
   const reason = notASolutionReason(result);
   if (reason !== undefined)
     lines.unshift(`# ${NOT_A_SOLUTION}: ${reason.replace(/[\r\n]+/g, " ")}`);

@@ -6,6 +6,7 @@
  */
 
 import type { NetworkResult } from "../results/result-types.js";
+import { COMPONENT_GROUPS, componentEdges, componentGroupColumns } from "./component-columns.js";
 import { displayUnit, type UnitSetName } from "./display-units.js";
 import { formatNumber } from "./format-number.js";
 import { edgeColumns, nodeColumns, type ResultColumn } from "./result-columns.js";
@@ -32,6 +33,9 @@ export interface ResultReport {
   heading: string;
   nodes: TextTable;
   edges: TextTable;
+  /** One table per group of component kinds present (orifices and nozzles, control valves,
+   * regulators, check valves), with each component's own figures; none without components. */
+  components: TextTable[];
   /** `warning: ...` lines: the result's warnings except input notes and the status message. */
   warnings: string[];
   /** The input notes (code "bare-pressure-unit-absolute"), without a prefix. */
@@ -107,6 +111,21 @@ export function edgeTable(result: NetworkResult, units: UnitSetName): TextTable 
   return textTable("Edges", edgeColumns(units), result.edges);
 }
 
+/**
+ * The component tables of a result: for each group of kinds present, its components with their
+ * own figures (state, ratios, choke limits, expansion factors, setpoint deviation, leakage).
+ */
+export function componentTables(result: NetworkResult, units: UnitSetName): TextTable[] {
+  const components = componentEdges(result.edges);
+  return COMPONENT_GROUPS.flatMap(({ title, kinds }) => {
+    const rows = components.filter((edge) =>
+      (kinds as readonly string[]).includes(edge.component.kind),
+    );
+    if (rows.length === 0) return [];
+    return [textTable(title, componentGroupColumns(rows, kinds, units), rows)];
+  });
+}
+
 /** `solver: converged in 3 iterations; largest scaled residual 9.0e-15; throughput 450 kg/h`. */
 export function solverSummary(result: NetworkResult, units: UnitSetName): string {
   const flow = displayUnit(units, "massFlow");
@@ -124,7 +143,8 @@ export function solverSummary(result: NetworkResult, units: UnitSetName): string
  *
  * @param result - the result of `solveNetwork`, SI
  * @param units - the unit set of the tables
- * @returns marker (only when not a solution), heading, tables, warnings, notes, summary, caution
+ * @returns marker (only when not a solution), heading, node, edge and component tables,
+ *   warnings, notes, summary, caution
  * @example resultReport(solveNetwork(doc), "metric").edges.columns[3] // { label: "mass flow", unit: "kg/h", align: "right" }
  */
 export function resultReport(result: NetworkResult, units: UnitSetName): ResultReport {
@@ -137,6 +157,7 @@ export function resultReport(result: NetworkResult, units: UnitSetName): ResultR
     heading,
     nodes: nodeTable(result, units),
     edges: edgeTable(result, units),
+    components: componentTables(result, units),
     warnings: resultWarnings(result),
     notes: resultNotes(result),
     summary: solverSummary(result, units),

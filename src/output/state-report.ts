@@ -108,26 +108,8 @@ export function sectionState(
       );
     }
     const mach = Math.sqrt((2 / (gamma - 1)) * (stagnationTemperature / temperature - 1));
-    const a = speedOfSound(gas, temperature);
     const pressure = input.pressure ?? null;
-    const density = pressure === null ? null : gasDensity(gas, pressure, temperature);
-    const velocity = mach * a;
-    return {
-      ok: true,
-      state: {
-        given,
-        pressure,
-        temperature,
-        density,
-        speedOfSound: a,
-        mach,
-        velocity,
-        massFlux: density === null ? null : density * velocity,
-        stagnationTemperature,
-        stagnationPressure:
-          pressure === null ? null : pressure / isentropicPressureRatio(mach, gamma),
-      },
-    };
+    return stateAt(gas, given, pressure, temperature, mach, undefined, stagnationTemperature);
   }
   if (given === "stagnationState") {
     const { stagnationTemperature, stagnationPressure, pressure } = input;
@@ -140,29 +122,19 @@ export function sectionState(
     }
     const mach = machFromPressureRatio(pressure / stagnationPressure, gamma);
     const temperature = stagnationTemperature * isentropicTemperatureRatio(mach, gamma);
-    const a = speedOfSound(gas, temperature);
-    const density = gasDensity(gas, pressure, temperature);
-    return {
-      ok: true,
-      state: {
-        given,
-        pressure,
-        temperature,
-        density,
-        speedOfSound: a,
-        mach,
-        velocity: mach * a,
-        massFlux: density * mach * a,
-        stagnationTemperature,
-        stagnationPressure,
-      },
-    };
+    return stateAt(
+      gas,
+      given,
+      pressure,
+      temperature,
+      mach,
+      undefined,
+      stagnationTemperature,
+      stagnationPressure,
+    );
   }
   const { pressure, temperature } = input;
   const a = speedOfSound(gas, temperature);
-  const density = gasDensity(gas, pressure, temperature);
-  let velocity: number;
-  let mach: number;
   if (given === "velocity") {
     if (!(input.velocity >= 0)) {
       return valueIssue(
@@ -171,25 +143,42 @@ export function sectionState(
         `must be 0 or more (got ${input.velocity} m/s)`,
       );
     }
-    velocity = input.velocity;
-    mach = velocity / a;
-  } else if (given === "mach") {
+    return stateAt(gas, given, pressure, temperature, input.velocity / a, input.velocity);
+  }
+  if (given === "mach") {
     if (!(input.mach >= 0)) {
       return valueIssue("--mach", input.mach, `must be 0 or more (got ${input.mach})`);
     }
-    mach = input.mach;
-    velocity = mach * a;
-  } else {
-    if (!(input.massFlux >= 0)) {
-      return valueIssue(
-        "--mass-flux",
-        input.massFlux,
-        `must be 0 or more (got ${input.massFlux} kg/(m2 s))`,
-      );
-    }
-    velocity = input.massFlux / density;
-    mach = velocity / a;
+    return stateAt(gas, given, pressure, temperature, input.mach);
   }
+  if (!(input.massFlux >= 0)) {
+    return valueIssue(
+      "--mass-flux",
+      input.massFlux,
+      `must be 0 or more (got ${input.massFlux} kg/(m2 s))`,
+    );
+  }
+  const velocity = input.massFlux / gasDensity(gas, pressure, temperature);
+  return stateAt(gas, given, pressure, temperature, velocity / a, velocity);
+}
+
+/**
+ * The whole state from the static pressure (null if unknown), the static temperature and the
+ * Mach number, keeping the velocity and stagnation values given exactly as given.
+ */
+function stateAt(
+  gas: Gas,
+  given: SectionStateInput["given"],
+  pressure: number | null,
+  temperature: number,
+  mach: number,
+  velocity = mach * speedOfSound(gas, temperature),
+  stagnationTemperature = temperature / isentropicTemperatureRatio(mach, gas.heatCapacityRatio),
+  stagnationPressure = pressure === null
+    ? null
+    : pressure / isentropicPressureRatio(mach, gas.heatCapacityRatio),
+): { ok: true; state: SectionState } {
+  const density = pressure === null ? null : gasDensity(gas, pressure, temperature);
   return {
     ok: true,
     state: {
@@ -197,12 +186,12 @@ export function sectionState(
       pressure,
       temperature,
       density,
-      speedOfSound: a,
+      speedOfSound: speedOfSound(gas, temperature),
       mach,
       velocity,
-      massFlux: density * velocity,
-      stagnationTemperature: temperature / isentropicTemperatureRatio(mach, gamma),
-      stagnationPressure: pressure / isentropicPressureRatio(mach, gamma),
+      massFlux: density === null ? null : density * velocity,
+      stagnationTemperature,
+      stagnationPressure,
     },
   };
 }
@@ -235,6 +224,24 @@ const GIVEN: Readonly<Record<SectionStateInput["given"], readonly string[]>> = {
   stagnationState: ["stagnationTemperature", "stagnationPressure", "pressure"],
 };
 
+/** The rows of the state table, in order: label, quantity, display kind, digits. */
+const SECTION_ROWS: readonly {
+  label: string;
+  key: Exclude<keyof SectionState, "given">;
+  kind: Parameters<typeof displayUnit>[1];
+  digits: number;
+}[] = [
+  { label: "static pressure", key: "pressure", kind: "pressure", digits: 6 },
+  { label: "static temperature", key: "temperature", kind: "temperature", digits: 5 },
+  { label: "density", key: "density", kind: "density", digits: 5 },
+  { label: "speed of sound", key: "speedOfSound", kind: "velocity", digits: 5 },
+  { label: "Mach number", key: "mach", kind: "dimensionless", digits: 5 },
+  { label: "velocity", key: "velocity", kind: "velocity", digits: 5 },
+  { label: "mass flux", key: "massFlux", kind: "massFlux", digits: 5 },
+  { label: "stagnation temperature", key: "stagnationTemperature", kind: "temperature", digits: 5 },
+  { label: "stagnation pressure", key: "stagnationPressure", kind: "pressure", digits: 6 },
+];
+
 /**
  * The state as a table of quantity, value, unit and whether it was given or computed.
  *
@@ -251,44 +258,23 @@ export function sectionStateTable(
 ): TextTable {
   const given = GIVEN[state.given];
   const rows: string[][] = [];
-  const mark = (key: string) => (given.includes(key) ? "given" : "");
-  const add = (
-    label: string,
-    key: string,
-    value: number | null,
-    kind: Parameters<typeof displayUnit>[1],
-    digits = 5,
-  ) => {
-    if (value === null) return;
-    const unit = displayUnit(units, kind);
+  for (const row of SECTION_ROWS) {
+    const value = state[row.key];
+    if (value === null) continue;
+    const mark = given.includes(row.key) ? "given" : "";
+    const unit = displayUnit(units, row.kind);
     rows.push([
-      label,
-      formatNumber(unit.fromSI(value), digits),
-      kind === "dimensionless" ? "" : unit.label,
-      mark(key),
+      row.label,
+      formatNumber(unit.fromSI(value), row.digits),
+      row.kind === "dimensionless" ? "" : unit.label,
+      mark,
     ]);
-  };
-  const addGauge = (label: string, key: string, value: number | null) => {
-    if (value === null) return;
-    const gauge = displayGaugePressure(units, value, ambientPressure);
-    rows.push([label, formatNumber(gauge.value, 6), gauge.label, mark(key)]);
-  };
-  add("static pressure", "pressure", state.pressure, "pressure", 6);
-  addGauge("static pressure", "pressure", state.pressure);
-  add("static temperature", "temperature", state.temperature, "temperature");
-  add("density", "density", state.density, "density");
-  add("speed of sound", "speedOfSound", state.speedOfSound, "velocity");
-  add("Mach number", "mach", state.mach, "dimensionless");
-  add("velocity", "velocity", state.velocity, "velocity");
-  add("mass flux", "massFlux", state.massFlux, "massFlux");
-  add(
-    "stagnation temperature",
-    "stagnationTemperature",
-    state.stagnationTemperature,
-    "temperature",
-  );
-  add("stagnation pressure", "stagnationPressure", state.stagnationPressure, "pressure", 6);
-  addGauge("stagnation pressure", "stagnationPressure", state.stagnationPressure);
+    if (row.kind === "pressure") {
+      // Each pressure also as a gauge pressure, on the next row.
+      const gauge = displayGaugePressure(units, value, ambientPressure);
+      rows.push([row.label, formatNumber(gauge.value, row.digits), gauge.label, mark]);
+    }
+  }
   return {
     title: `State at one section: ${gas.name}, gamma ${formatNumber(gas.heatCapacityRatio)}, R ${formatNumber(gas.specificGasConstant, 6)} J/(kg K); isentropic, calorically perfect gas`,
     columns: [

@@ -69,7 +69,7 @@ describe("bad command lines exit 2", () => {
     ],
     [
       ["solve", "a.json", "--table", "pipes"],
-      "error: option '--table <table>' argument 'pipes' is invalid. Allowed choices are edges, nodes.",
+      "error: option '--table <table>' argument 'pipes' is invalid. Allowed choices are edges, nodes, components.",
     ],
     [["check"], "error: missing required argument 'file'"],
   ])("%j", async (args, message) => {

@@ -206,3 +206,65 @@ describe("results that are not a solution exit 1", () => {
     ]);
   });
 });
+
+describe("machnet solve: component tables", () => {
+  // A restriction orifice venting 8 bar(a) to the atmosphere: the ratio 1.01325 / 8 = 0.127 is
+  // far below the critical ratio 0.528 of air (common practice), so it chokes.
+  const ORIFICE_VENT = {
+    ...VENT,
+    edges: [
+      {
+        id: "RO",
+        kind: "orifice",
+        from: "HP",
+        to: "ATM",
+        boreDiameter: "10 mm",
+        pipeDiameter: "50 mm",
+      },
+    ],
+  };
+  const withOrifice = { ...files, "ro.json": json(ORIFICE_VENT) };
+
+  test("the table format prints each component kind's own table after the edges", async () => {
+    const run = await runCli(["solve", "ro.json"], withOrifice);
+    expect(run.code).toBe(0);
+    const output = lines(run.stdout);
+    const title = output.indexOf("Orifices and nozzles");
+    expect(title).toBeGreaterThan(output.indexOf("Edges"));
+    expect(output[title + 1]).toMatch(
+      /^id\s+kind\s+from\s+to\s+d\/D\s+C\s+p ratio\s+critical\s+Δp taps\s+loss\s+ε\s+status$/,
+    );
+    // d/D = 10 / 50 = 0.2; critical ratio of air (2 / 2.4)^3.5 = 0.5283.
+    expect(output[title + 4]).toMatch(
+      /^RO\s+orifice\s+HP\s+ATM\s+0\.2000\s+0\.6000\s+0\.5283\s+0\.5283\s.*CHOKED$/,
+    );
+  });
+
+  test("--table components prints only the component tables, or says there are none", async () => {
+    const run = await runCli(["solve", "ro.json", "--table", "components"], withOrifice);
+    expect(run.code).toBe(0);
+    expect(lines(run.stdout)).not.toContain("Edges");
+    expect(lines(run.stdout)).toContain("Orifices and nozzles");
+    const none = await runCli(["solve", "two.json", "--table", "components"], files);
+    expect(lines(none.stdout)).toContain("no components in this network");
+  });
+
+  test("--format csv --table components writes one row per component with its own figures", async () => {
+    const run = await runCli(
+      ["solve", "ro.json", "--format", "csv", "--table", "components", "--units", "si"],
+      withOrifice,
+    );
+    expect(run.code).toBe(0);
+    const [header, row] = lines(run.stdout);
+    expect(header).toMatch(
+      /^id,kind,from,to,state,diameter ratio,discharge coefficient,tap pressure ratio,/,
+    );
+    const cells = (row as string).split(",");
+    expect(cells.slice(0, 5)).toEqual(["RO", "orifice", "HP", "ATM", ""]);
+    // d/D = 10 mm / 50 mm (0.2 to rounding: 0.01 / 0.05 in doubles), C 0.6, critical ratio of air.
+    expect(Number(cells[5])).toBeCloseTo(0.2, 15);
+    expect(Number(cells[6])).toBe(0.6);
+    expect(Number(cells[8])).toBeCloseTo((2 / 2.4) ** 3.5, 14);
+    expect(cells.at(-1)).toBe("CHOKED");
+  });
+});

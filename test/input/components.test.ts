@@ -440,6 +440,87 @@ describe("bad values of the new fields are refused with their JSON path", () => 
       "/edges/0/fittings/0/count",
       /integer/,
     ],
+    // Found untested while checking issue #4's list: every remaining component field.
+    ["a negative cv", { kind: "valve", cv: -3 }, "/edges/0/cv", /must be > 0/],
+    [
+      "a negative opening",
+      { kind: "valve", kv: 10, opening: -0.1 },
+      "/edges/0/opening",
+      /must be >= 0/,
+    ],
+    ["an xT of 0", { kind: "valve", kv: 10, xT: 0 }, "/edges/0/xT", /must be > 0/],
+    [
+      "a negative valve pipe diameter",
+      { kind: "valve", kv: 10, pipeDiameter: "-5 mm" },
+      "/edges/0/pipeDiameter",
+      /must be greater than 0 \(got "-5 mm"\)/,
+    ],
+    [
+      "a zero outlet pipe diameter",
+      { kind: "valve", kv: 10, pipeDiameter: "50 mm", outletPipeDiameter: "0 mm" },
+      "/edges/0/outletPipeDiameter",
+      /must be greater than 0 \(got "0 mm"\)/,
+    ],
+    [
+      "a negative valve diameter",
+      { kind: "valve", kv: 10, valveDiameter: "-1 mm" },
+      "/edges/0/valveDiameter",
+      /must be greater than 0/,
+    ],
+    [
+      "a loss coefficient of 0",
+      { kind: "check", lossCoefficient: 0, pipeDiameter: "50 mm" },
+      "/edges/0/lossCoefficient",
+      /must be > 0/,
+    ],
+    [
+      "a check valve with kv and a loss coefficient",
+      { kind: "check", kv: 10, lossCoefficient: 2, pipeDiameter: "50 mm" },
+      "/edges/0",
+      /give only one of "kv", "cv" or "lossCoefficient" \(got kv and lossCoefficient\)/,
+    ],
+    [
+      "a loss coefficient on a regulator",
+      { kind: "regulator", lossCoefficient: 3, setpoint: "4 bar(g)" },
+      "/edges/0/lossCoefficient",
+      /a regulator has no field "lossCoefficient"/,
+    ],
+    [
+      "a zero proportional band",
+      { kind: "regulator", kv: 10, setpoint: "4 bar(g)", proportionalBand: "0 bar" },
+      "/edges/0/proportionalBand",
+      /must be greater than 0/,
+    ],
+    [
+      "a setpoint below vacuum",
+      { kind: "regulator", kv: 10, setpoint: "-2 bar(g)" },
+      "/edges/0/setpoint",
+      /absolute pressure must be greater than 0 Pa \(got "-2 bar\(g\)"/,
+    ],
+    [
+      "a nozzle throat too large for its pipe",
+      { kind: "nozzle", boreDiameter: "45 mm", pipeDiameter: "52.5 mm" },
+      "/edges/0/boreDiameter",
+      /diameter ratio of 0.857; ISO 5167-3 covers nozzles up to 0.8/,
+    ],
+    [
+      "a negative orifice pipe diameter",
+      { kind: "orifice", boreDiameter: "10 mm", pipeDiameter: "-5 mm" },
+      "/edges/0/pipeDiameter",
+      /must be greater than 0/,
+    ],
+    [
+      "a discharge coefficient of 0",
+      { kind: "orifice", boreDiameter: "10 mm", dischargeCoefficient: 0 },
+      "/edges/0/dischargeCoefficient",
+      /must be > 0/,
+    ],
+    [
+      "a size that is a number",
+      { kind: "pipe", length: "10 m", size: 80, schedule: "40" },
+      "/edges/0/size",
+      /must be of type string/,
+    ],
   ];
   for (const [what, edge, path, message] of cases) {
     it(`refuses ${what} at ${path}`, () => {

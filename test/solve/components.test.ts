@@ -147,6 +147,42 @@ describe("each component alone between two reservoirs", () => {
   });
 });
 
+describe("a check valve and a regulator alone between two reservoirs against the library", () => {
+  // Found while checking issue #4's list: the check valve and the regulator were compared with
+  // machnet's own valve only. Here each is compared with the flow python3-fluids'
+  // size_control_valve_g (IEC 60534-2-1) sizes its Kv for.
+  for (const c of reference.valveBetweenReservoirs) {
+    const x = (c.upstreamPressure - c.downstreamPressure) / c.upstreamPressure;
+    const solve = (component: Record<string, unknown>) => {
+      const result = solveNetwork(
+        twoReservoirs(component, c.upstreamPressure, c.downstreamPressure, c.temperature),
+      );
+      expect(result.status).toBe("converged");
+      return edge(result, "C");
+    };
+    it(`at x = ${x.toFixed(3)}: an open check valve, a wide-open regulator and one inside its band (${library})`, () => {
+      // IEC's N9 = 24.6 is rounded (machnet's exact value 24.58): 8e-4 apart.
+      const check = solve({ kind: "check", kv: c.kv, xT: c.xT });
+      expect(relativeError(check.massFlow, c.massFlow)).toBeLessThan(1.5e-3);
+      const setpoint = 1.2 * c.downstreamPressure;
+      const wideOpen = solve({ kind: "regulator", kv: c.kv, xT: c.xT, setpoint });
+      expect(relativeError(wideOpen.massFlow, c.massFlow)).toBeLessThan(1.5e-3);
+      // Inside the band: z = (p_set - p2) / band = 0.5, so the opening is z (2 - z) = 0.75 of
+      // the wide-open trim (docs/model.md, "Regulator").
+      const band = 2 * (setpoint - c.downstreamPressure);
+      const regulating = solve({
+        kind: "regulator",
+        kv: c.kv,
+        xT: c.xT,
+        setpoint,
+        proportionalBand: band,
+      });
+      expect(regulating.component).toMatchObject({ state: "regulating" });
+      expect(relativeError(regulating.massFlow, 0.75 * c.massFlow)).toBeLessThan(1.5e-3);
+    });
+  }
+});
+
 describe("choking in each component kind", () => {
   const kinds: [string, Record<string, unknown>][] = [
     ["orifice", { kind: "orifice", boreDiameter: "12 mm", pipeDiameter: "52.48 mm" }],

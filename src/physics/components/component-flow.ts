@@ -6,7 +6,7 @@ import { criticalPressureRatio } from "../isentropic.js";
 import type { PipeFlowEvaluation, PipeGas } from "../pipe-flow.js";
 import { type ComponentElement, LEAKAGE_FRACTION } from "./component-elements.js";
 import { evaluateNozzleFlow, nozzleCriticalPressureRatio, nozzleExpansibility } from "./nozzle.js";
-import { diameterRatio, evaluateOrificeFlow, orificeExpansibility } from "./orifice.js";
+import { evaluateOrificeFlow, orificeExpansibility } from "./orifice.js";
 import {
   evaluateCheckValveFlow,
   evaluateRegulatorFlow,
@@ -14,7 +14,7 @@ import {
   regulatorOpening,
   regulatorState,
 } from "./regulator.js";
-import { pressureLossRatio } from "./restriction.js";
+import { diameterRatio, pressureLossRatio } from "./restriction.js";
 import {
   evaluateValveFlow,
   FLOW_AREA_PER_KV,

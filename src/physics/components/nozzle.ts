@@ -5,9 +5,7 @@
 import type { PipeFlowEvaluation, PipeGas } from "../pipe-flow.js";
 import { safeguardedNewton } from "../scalar-root.js";
 import type { NozzleElement } from "./component-elements.js";
-import { connectionStates } from "./connection-states.js";
-import { diameterRatio } from "./orifice.js";
-import { fillRestrictionFlow, pressureLossRatio } from "./restriction.js";
+import { evaluateRestrictionFlow, type TapFlowRelation } from "./restriction.js";
 import { regularisedRoot, regularisedRootSlope } from "./small-difference.js";
 
 /**
@@ -158,10 +156,24 @@ function fluxFactor(x: number, gamma: number, beta4: number): { value: number; l
 }
 
 /**
- * A nozzle as a network edge (docs/model.md, "Components"): m = C (pi/4) d^2 p1 / sqrt(R T1)
- * sqrt(2 gamma / (gamma - 1)) sqrt(h(x_tap)) s(x_tap), x_tap = x / L, L the permanent-loss ratio
- * (1 from a plenum); choked for x_tap >= 1 - tau*(beta).
+ * The nozzle's tap relation (docs/model.md, "Components"): m = C (pi/4) d^2 p1 / sqrt(R T1)
+ * sqrt(2 gamma / (gamma - 1)) sqrt(h(x_tap)) s(x_tap), s the regularised square root; choked
+ * for x_tap >= 1 - tau*(beta).
  */
+const NOZZLE_TAP_FLOW: TapFlowRelation = {
+  flowScale: (dischargeCoefficient, area, _beta4, gamma, upstreamPressure) =>
+    dischargeCoefficient * area * upstreamPressure * Math.sqrt((2 * gamma) / (gamma - 1)),
+  criticalTapRatio: (beta, gamma) => 1 - nozzleCriticalPressureRatio(beta, gamma),
+  flowFunction: (tap, gamma, beta4) =>
+    Math.sqrt(fluxFactor(tap, gamma, beta4).value) * regularisedRoot(tap),
+  flowFunctionSlope(tap, gamma, beta4) {
+    const factor = fluxFactor(tap, gamma, beta4);
+    const root = regularisedRoot(tap);
+    return Math.sqrt(factor.value) * (regularisedRootSlope(tap) + 0.5 * root * factor.logSlope);
+  },
+};
+
+/** A nozzle as a network edge: evaluateRestrictionFlow with the nozzle's tap relation. */
 export function evaluateNozzleFlow(
   nozzle: NozzleElement,
   gas: PipeGas,
@@ -171,40 +183,13 @@ export function evaluateNozzleFlow(
   out: PipeFlowEvaluation,
   needEndStates: boolean,
 ): void {
-  const gamma = gas.heatCapacityRatio;
-  const beta = diameterRatio(nozzle);
-  const beta4 = beta ** 4;
-  const c = nozzle.dischargeCoefficient;
-  const area = 0.25 * Math.PI * nozzle.boreDiameter * nozzle.boreDiameter;
-  const p1 = upstreamPressure;
-  const t1 = upstreamTemperature;
-  const p2 = downstreamPressure;
-  const scale =
-    (c * area * p1 * Math.sqrt((2 * gamma) / (gamma - 1))) /
-    Math.sqrt(gas.specificGasConstant * t1);
-  const lossRatio = pressureLossRatio(beta, c);
-  const critical = 1 - nozzleCriticalPressureRatio(beta, gamma);
-  const tap = Math.max((p1 - p2) / p1, 0) / lossRatio;
-  const atCritical = fluxFactor(critical, gamma, beta4);
-  const largest = Math.sqrt(atCritical.value) * regularisedRoot(critical);
-  if (tap >= critical) {
-    fillRestrictionFlow(out, scale, largest, 0, largest, lossRatio, true, p1, t1, p2);
-  } else {
-    const factor = fluxFactor(tap, gamma, beta4);
-    const root = regularisedRoot(tap);
-    const sqrtFactor = Math.sqrt(factor.value);
-    const value = sqrtFactor * root;
-    const slope = sqrtFactor * (regularisedRootSlope(tap) + 0.5 * root * factor.logSlope);
-    fillRestrictionFlow(out, scale, value, slope, largest, lossRatio, false, p1, t1, p2);
-  }
-  connectionStates(
+  evaluateRestrictionFlow(
+    nozzle,
+    NOZZLE_TAP_FLOW,
     gas,
-    p1,
-    t1,
-    p2,
-    nozzle.pipeDiameter,
-    nozzle.pipeDiameter,
-    Number.isNaN(nozzle.pipeDiameter) ? nozzle.boreDiameter : nozzle.pipeDiameter,
+    upstreamPressure,
+    upstreamTemperature,
+    downstreamPressure,
     out,
     needEndStates,
   );

@@ -4,8 +4,7 @@
 import { criticalPressureRatio } from "../isentropic.js";
 import type { PipeFlowEvaluation, PipeGas } from "../pipe-flow.js";
 import type { OrificeElement } from "./component-elements.js";
-import { connectionStates } from "./connection-states.js";
-import { fillRestrictionFlow, pressureLossRatio } from "./restriction.js";
+import { evaluateRestrictionFlow, type TapFlowRelation } from "./restriction.js";
 import { regularisedRoot, regularisedRootSlope } from "./small-difference.js";
 
 /**
@@ -77,16 +76,32 @@ export function orificeMassFlow(
   );
 }
 
-/** beta = d / D of an orifice or nozzle element (0 between plenums). */
-export function diameterRatio(element: { boreDiameter: number; pipeDiameter: number }): number {
-  return Number.isNaN(element.pipeDiameter) ? 0 : element.boreDiameter / element.pipeDiameter;
-}
-
 /**
- * An orifice as a network edge (docs/model.md, "Components"): m = K p1 / sqrt(R T1) sqrt(2)
- * epsilon(1 - x_tap) s(x_tap), K = C (pi/4) d^2 / sqrt(1 - beta^4), x_tap = x / L, L the
- * permanent-loss ratio; choked for x_tap >= 1 - p* / p0 (the critical pressure ratio of the gas).
+ * The orifice's tap relation (docs/model.md, "Components"): m = K p1 / sqrt(R T1) sqrt(2)
+ * epsilon(1 - x_tap) s(x_tap), K = C (pi/4) d^2 / sqrt(1 - beta^4), s the regularised square
+ * root; choked for x_tap >= 1 - p* / p0 (the critical pressure ratio of the gas).
  */
+const ORIFICE_TAP_FLOW: TapFlowRelation = {
+  flowScale: (dischargeCoefficient, area, beta4, _gamma, upstreamPressure) =>
+    (dischargeCoefficient / Math.sqrt(1 - beta4)) * area * upstreamPressure,
+  criticalTapRatio: (_beta, gamma) => 1 - criticalPressureRatio(gamma),
+  flowFunction(tap, gamma, beta4) {
+    const a = 0.351 + 0.256 * beta4 + 0.93 * beta4 * beta4;
+    return Math.SQRT2 * (1 - a * (1 - (1 - tap) ** (1 / gamma))) * regularisedRoot(tap);
+  },
+  flowFunctionSlope(tap, gamma, beta4) {
+    const a = 0.351 + 0.256 * beta4 + 0.93 * beta4 * beta4;
+    const tau = 1 - tap;
+    const expansibility = 1 - a * (1 - tau ** (1 / gamma));
+    const expansibilitySlope = (-a / gamma) * tau ** (1 / gamma - 1);
+    return (
+      Math.SQRT2 *
+      (expansibilitySlope * regularisedRoot(tap) + expansibility * regularisedRootSlope(tap))
+    );
+  },
+};
+
+/** An orifice as a network edge: evaluateRestrictionFlow with the orifice's tap relation. */
 export function evaluateOrificeFlow(
   orifice: OrificeElement,
   gas: PipeGas,
@@ -96,41 +111,13 @@ export function evaluateOrificeFlow(
   out: PipeFlowEvaluation,
   needEndStates: boolean,
 ): void {
-  const gamma = gas.heatCapacityRatio;
-  const beta = diameterRatio(orifice);
-  const beta4 = beta ** 4;
-  const c = orifice.dischargeCoefficient;
-  const area = 0.25 * Math.PI * orifice.boreDiameter * orifice.boreDiameter;
-  const p1 = upstreamPressure;
-  const t1 = upstreamTemperature;
-  const p2 = downstreamPressure;
-  const scale = ((c / Math.sqrt(1 - beta4)) * area * p1) / Math.sqrt(gas.specificGasConstant * t1);
-  const lossRatio = pressureLossRatio(beta, c);
-  const a = 0.351 + 0.256 * beta4 + 0.93 * beta4 * beta4;
-  const critical = 1 - criticalPressureRatio(gamma);
-  const tap = Math.max((p1 - p2) / p1, 0) / lossRatio;
-  const largest =
-    Math.SQRT2 * (1 - a * (1 - (1 - critical) ** (1 / gamma))) * regularisedRoot(critical);
-  if (tap >= critical) {
-    fillRestrictionFlow(out, scale, largest, 0, largest, lossRatio, true, p1, t1, p2);
-  } else {
-    const tau = 1 - tap;
-    const expansibility = 1 - a * (1 - tau ** (1 / gamma));
-    const expansibilitySlope = (-a / gamma) * tau ** (1 / gamma - 1);
-    const root = regularisedRoot(tap);
-    const value = Math.SQRT2 * expansibility * root;
-    const slope =
-      Math.SQRT2 * (expansibilitySlope * root + expansibility * regularisedRootSlope(tap));
-    fillRestrictionFlow(out, scale, value, slope, largest, lossRatio, false, p1, t1, p2);
-  }
-  connectionStates(
+  evaluateRestrictionFlow(
+    orifice,
+    ORIFICE_TAP_FLOW,
     gas,
-    p1,
-    t1,
-    p2,
-    orifice.pipeDiameter,
-    orifice.pipeDiameter,
-    Number.isNaN(orifice.pipeDiameter) ? orifice.boreDiameter : orifice.pipeDiameter,
+    upstreamPressure,
+    upstreamTemperature,
+    downstreamPressure,
     out,
     needEndStates,
   );

@@ -6,7 +6,8 @@
  * from the node pressures, and the flow is m = K p1 / sqrt(R T1) g(x_tap), choked (constant) for
  * x_tap at or above the critical tap differential ratio.
  */
-import type { PipeFlowEvaluation } from "../pipe-flow.js";
+import type { PipeFlowEvaluation, PipeGas } from "../pipe-flow.js";
+import { connectionStates } from "./connection-states.js";
 
 /**
  * Permanent pressure loss over the differential pressure of an orifice plate, ISO 5167-2, and of
@@ -28,12 +29,89 @@ export function pressureLossRatio(beta: number, dischargeCoefficient: number): n
   return (root - dischargeCoefficient * beta2) / (root + dischargeCoefficient * beta2);
 }
 
+/** beta = d / D of an orifice or nozzle element (0 between plenums). */
+export function diameterRatio(element: { boreDiameter: number; pipeDiameter: number }): number {
+  return Number.isNaN(element.pipeDiameter) ? 0 : element.boreDiameter / element.pipeDiameter;
+}
+
+/**
+ * What makes an orifice plate or a nozzle: its flow as a function of the tap differential ratio,
+ * m = scale g(x_tap), scale = K p1 / sqrt(R T1), constant from the critical tap ratio on.
+ * Plain functions of numbers (no allocation), one constant object per kind.
+ */
+export interface TapFlowRelation {
+  /** K p1 [Pa m2], the flow scale times sqrt(R T1): C (pi/4) d^2 p1 times the kind's factor. */
+  flowScale(
+    dischargeCoefficient: number,
+    area: number,
+    beta4: number,
+    gamma: number,
+    upstreamPressure: number,
+  ): number;
+  /** The tap differential ratio at which it chokes, 1 - tau* [-]. */
+  criticalTapRatio(beta: number, gamma: number): number;
+  /** g(x_tap) [-], for 0 <= x_tap <= the critical tap ratio. */
+  flowFunction(tap: number, gamma: number, beta4: number): number;
+  /** dg / dx_tap [-]. */
+  flowFunctionSlope(tap: number, gamma: number, beta4: number): number;
+}
+
+/**
+ * An orifice plate or a nozzle as a network edge (docs/model.md, "Components"): the tap
+ * differential ratio x_tap = x / L from the node pressures (L the permanent-loss ratio), the
+ * flow m = scale g(x_tap) with its derivatives, choked (m = scale g(x_tap*)) for x_tap >= x_tap*,
+ * and the states in the connecting pipes.
+ */
+export function evaluateRestrictionFlow(
+  element: { boreDiameter: number; pipeDiameter: number; dischargeCoefficient: number },
+  relation: TapFlowRelation,
+  gas: PipeGas,
+  upstreamPressure: number,
+  upstreamTemperature: number,
+  downstreamPressure: number,
+  out: PipeFlowEvaluation,
+  needEndStates: boolean,
+): void {
+  const gamma = gas.heatCapacityRatio;
+  const beta = diameterRatio(element);
+  const beta4 = beta ** 4;
+  const c = element.dischargeCoefficient;
+  const area = 0.25 * Math.PI * element.boreDiameter * element.boreDiameter;
+  const p1 = upstreamPressure;
+  const t1 = upstreamTemperature;
+  const p2 = downstreamPressure;
+  const scale =
+    relation.flowScale(c, area, beta4, gamma, p1) / Math.sqrt(gas.specificGasConstant * t1);
+  const lossRatio = pressureLossRatio(beta, c);
+  const critical = relation.criticalTapRatio(beta, gamma);
+  const tap = Math.max((p1 - p2) / p1, 0) / lossRatio;
+  const largest = relation.flowFunction(critical, gamma, beta4);
+  if (tap >= critical) {
+    fillRestrictionFlow(out, scale, largest, 0, largest, lossRatio, true, p1, t1, p2);
+  } else {
+    const value = relation.flowFunction(tap, gamma, beta4);
+    const slope = relation.flowFunctionSlope(tap, gamma, beta4);
+    fillRestrictionFlow(out, scale, value, slope, largest, lossRatio, false, p1, t1, p2);
+  }
+  connectionStates(
+    gas,
+    p1,
+    t1,
+    p2,
+    element.pipeDiameter,
+    element.pipeDiameter,
+    Number.isNaN(element.pipeDiameter) ? element.boreDiameter : element.pipeDiameter,
+    out,
+    needEndStates,
+  );
+}
+
 /**
  * Fill mass flow, derivatives, choke flag and capacity from the tap relation
  * m = scale g(x_tap) (scale = K p1 / sqrt(R T1)), given g and dg/dx_tap at x_tap and g at the
  * critical tap ratio (`largest`).
  */
-export function fillRestrictionFlow(
+function fillRestrictionFlow(
   out: PipeFlowEvaluation,
   scale: number,
   value: number,
