@@ -76,6 +76,9 @@ export function emptyPengRobinsonValues(): PengRobinsonValues {
  *
  * @param acentricFactor - omega [-]; fitted for 0 < omega < 0.5 (used as is outside)
  * @returns kappa [-]
+ * @remarks Source: D.-Y. Peng and D. B. Robinson, Ind. Eng. Chem. Fundam. 15, 59 (1976),
+ *   eq. 18. (The later 1978 form for omega > 0.49 is not used.)
+ * @example pengRobinsonKappa(0.011) // 0.39157 (methane)
  */
 export function pengRobinsonKappa(acentricFactor: number): number {
   return 0.37464 + acentricFactor * (1.54226 - 0.26992 * acentricFactor);

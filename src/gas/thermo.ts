@@ -93,8 +93,8 @@ export function emptyThermoState(): ThermoState {
  *   here: callers pass checked states. NASA data are held at their end values outside their
  *   fitted ranges (200 K to 3500 K or more).
  * @example gasState(gasPreset("air"), 101325, 288.15).density // 1.2250 kg/m3 (ISO 2533 sea level)
- * @example gasState(gasPreset("nitrogen", { heatCapacity: "nasa7" }), 1e5, 1000).specificHeatCp // 1166.7 J/(kg K) (NIST-JANAF 32.70 J/(mol K))
- * @example gasState(gasPreset("methane", { equationOfState: "peng-robinson" }), 100e5, 300).compressibility // 0.8866
+ * @example gasState(gasPreset("nitrogen", { heatCapacity: "nasa7" }), 1e5, 1000).specificHeatCp // 1166.7 J/(kg K), 32.683 J/(mol K) (NIST-JANAF 32.697)
+ * @example gasState(gasPreset("methane", { equationOfState: "peng-robinson" }), 100e5, 300).compressibility // 0.8338
  */
 export function gasState(
   gas: Gas,
@@ -168,25 +168,28 @@ const TEMPERATURE_SEARCH_RANGE = { low: 1, high: 20000 };
  * @param gas - the gas
  * @param enthalpy - h [J/kg]
  * @param pressure - absolute p [Pa], > 0 (used by a real-gas equation of state only)
- * @param scratch - working record (pass one in hot loops to avoid allocation)
+ * @param scratch - working state record (pass one in hot loops to avoid allocation)
+ * @param eosScratch - working record of the equation of state (likewise)
  * @returns T [K]; check `gasState(...).condensing` at it when the gas has an equation of state
- * @example temperatureFromEnthalpy(gasPreset("air"), 10050, 101325) // 308.15 K
+ * @example temperatureFromEnthalpy(gasPreset("air"), 10050, 101325) // 308.153 K (cp 1004.70 J/(kg K))
  */
 export function temperatureFromEnthalpy(
   gas: Gas,
   enthalpy: number,
   pressure: number,
   scratch?: ThermoState,
+  eosScratch?: PengRobinsonValues,
 ): number {
   const guess = ENTHALPY_REFERENCE_TEMPERATURE + enthalpy / gas.specificHeatCp;
   if (gas.heatCapacity === undefined && gas.equationOfState === undefined) return guess;
   const state = scratch ?? emptyThermoState();
-  const eosScratch = gas.equationOfState === undefined ? undefined : emptyPengRobinsonValues();
+  const eosRecord =
+    gas.equationOfState === undefined ? undefined : (eosScratch ?? emptyPengRobinsonValues());
   let low = TEMPERATURE_SEARCH_RANGE.low;
   let high = TEMPERATURE_SEARCH_RANGE.high;
   let temperature = Math.min(Math.max(guess, low * 2), high / 2);
   for (let iteration = 0; iteration < 100; iteration++) {
-    gasState(gas, pressure, temperature, state, eosScratch);
+    gasState(gas, pressure, temperature, state, eosRecord);
     const residual = state.enthalpy - enthalpy;
     if (residual > 0) high = temperature;
     else low = temperature;

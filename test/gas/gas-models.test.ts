@@ -561,3 +561,31 @@ describe("Peng-Robinson equation of state", () => {
 });
 
 type GasName = "methane" | "nitrogen" | "carbon-dioxide" | "air";
+
+describe("documented examples (TSDoc @example in src/gas/thermo.ts, gas.ts, peng-robinson.ts)", () => {
+  // Each value as printed in the doc comment, through the public entry; tolerance half its last
+  // printed digit.
+  it("gasState, temperatureFromEnthalpy, gasPreset with models, gasPresetModels, pengRobinsonKappa", async () => {
+    const api = await import("../../src/index.js");
+    expect(
+      Math.abs(api.gasState(api.gasPreset("air"), 101325, 288.15).density - 1.225),
+    ).toBeLessThan(5e-5);
+    const nitrogen = api.gasPreset("nitrogen", { heatCapacity: "nasa7" });
+    const cp = api.gasState(nitrogen, 1e5, 1000).specificHeatCp;
+    expect(Math.abs(cp - 1166.7)).toBeLessThan(0.05);
+    expect(Math.abs(cp * nitrogen.molarMass - 32.683)).toBeLessThan(5e-4);
+    const methane = api.gasPreset("methane", { equationOfState: "peng-robinson" });
+    expect(Math.abs(api.gasState(methane, 100e5, 300).compressibility - 0.8338)).toBeLessThan(5e-5);
+    expect(
+      Math.abs(api.temperatureFromEnthalpy(api.gasPreset("air"), 10050, 101325) - 308.153),
+    ).toBeLessThan(5e-4);
+    expect(
+      api.gasPreset("nitrogen", { equationOfState: "peng-robinson" }).equationOfState?.components[0]
+        ?.criticalTemperature,
+    ).toBe(126.2);
+    expect(api.gasPresetModels("natural-gas").heatCapacity).toEqual(["constant"]);
+    expect(Math.abs(api.pengRobinsonKappa(0.011) - 0.39157)).toBeLessThan(5e-6);
+    // kappa(omega) against the 1976 polynomial written out (closed form).
+    expect(api.pengRobinsonKappa(0.2)).toBeCloseTo(0.37464 + 1.54226 * 0.2 - 0.26992 * 0.04, 14);
+  });
+});
