@@ -18,10 +18,26 @@ export * from "./gas/gas.js";
 export type {
   ConstantViscosity,
   Gas,
+  Nasa7HeatCapacity,
+  Nasa7Species,
+  PengRobinsonComponent,
+  PengRobinsonEquationOfState,
   SutherlandViscosity,
   ViscosityLaw,
   WilkeViscosity,
 } from "./gas/gas-types.js";
+export {
+  emptyPengRobinsonValues,
+  type PengRobinsonValues,
+  pengRobinsonKappa,
+} from "./gas/peng-robinson.js";
+export {
+  ENTHALPY_REFERENCE_TEMPERATURE,
+  emptyThermoState,
+  gasState,
+  type ThermoState,
+  temperatureFromEnthalpy,
+} from "./gas/thermo.js";
 // Input
 export type {
   CheckedDocument,

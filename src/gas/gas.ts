@@ -7,10 +7,13 @@
  * All values SI: Pa absolute, K, m/s, kg/mol, J/(kg K), Pa s.
  */
 
+import { AIR_COMPOSITION, CRITICAL, NASA7 } from "./gas-model-data.js";
 import { NATURAL_GAS_COMPOSITION, SPECIES, type SpeciesName } from "./gas-presets.js";
 import type {
   ConstantViscosity,
   Gas,
+  Nasa7HeatCapacity,
+  PengRobinsonEquationOfState,
   SutherlandViscosity,
   ViscosityLaw,
   WilkeViscosity,
@@ -82,40 +85,164 @@ export function isGasPresetName(name: string): name is GasPresetName {
  *   M = 28.96442 g/mol (ISO 2533:1975) and gamma = 1.4 (project convention). Natural gas: the
  *   AGA Report No. 8 "Gulf Coast" composition. Valid as an ideal gas well above the
  *   saturation temperature and at pressures where Z stays near 1 (docs/model.md).
+ * With `models`, the preset also carries the data of a temperature-dependent heat capacity
+ * (NASA 7-coefficient polynomials, `heatCapacity: "nasa7"`) or of the Peng-Robinson equation of
+ * state (`equationOfState: "peng-robinson"`), used by {@link gasState}; its `specificHeatCp`
+ * and `heatCapacityRatio` stay the reference values above. {@link gasPresetModels} tells which
+ * preset has which data. Air uses the N2/O2/Ar/CO2 mixture of ISO 2533 for both.
+ *
+ * @param name - one of {@link GAS_PRESET_NAMES}
+ * @param models - the property models wanted; default constant cp and ideal gas
+ * @returns the gas, all fields SI
+ * @throws RangeError if `name` is not a preset name (possible from untyped callers) or the
+ *   preset has no data for a model asked for
+ * @remarks Values and their sources (ISO 2533, CIAAW 2021, NIST-JANAF, Burcat, Poling et al.,
+ *   U.S. Standard Atmosphere 1976, Crane TP-410, White's Viscous Fluid Flow, fits to Perry's
+ *   Table 2-312) are listed per species in src/gas/gas-presets.ts, src/gas/gas-model-data.ts
+ *   and docs/model.md. Air: M = 28.96442 g/mol (ISO 2533:1975) and gamma = 1.4 (project
+ *   convention). Natural gas: the AGA Report No. 8 "Gulf Coast" composition. Valid as an ideal
+ *   gas well above the saturation temperature and at pressures where Z stays near 1
+ *   (docs/model.md).
  * @example gasPreset("air").specificGasConstant // 287.058 J/(kg K)
  * @example gasPreset("methane").heatCapacityRatio // 1.3037
+ * @example gasPreset("nitrogen", { equationOfState: "peng-robinson" }).equationOfState?.components[0]?.criticalTemperature // 126.2 K
  */
-export function gasPreset(name: GasPresetName): Gas {
+export function gasPreset(name: GasPresetName, models: GasModelOptions = {}): Gas {
   if (!isGasPresetName(name)) {
     throw new RangeError(
       `gasPreset: unknown gas ${JSON.stringify(name)}; known gases are ${GAS_PRESET_NAMES.join(", ")}`,
     );
   }
+  const available = gasPresetModels(name);
+  const heatCapacity = models.heatCapacity ?? "constant";
+  const equationOfState = models.equationOfState ?? "ideal-gas";
+  if (!available.heatCapacity.includes(heatCapacity)) {
+    throw new RangeError(
+      `gasPreset: "${name}" has no data for heatCapacity "${heatCapacity}"; it has ${available.heatCapacity.join(", ")}`,
+    );
+  }
+  if (!available.equationOfState.includes(equationOfState)) {
+    throw new RangeError(
+      `gasPreset: "${name}" has no data for equationOfState "${equationOfState}"; it has ${available.equationOfState.join(", ")}`,
+    );
+  }
   if (name === "natural-gas") {
     return gasMixture(
       NATURAL_GAS_COMPOSITION.map((part) => ({
-        gas: speciesGas(part.species),
+        gas: speciesGas(part.species, models),
         moleFraction: part.molePercent / 100,
       })),
       "natural-gas",
     );
   }
-  return speciesGas(name);
+  return speciesGas(name, models);
 }
 
-/** A species of gas-presets.ts as a Gas (fresh objects throughout). */
-function speciesGas(name: SpeciesName): Gas {
+/** Heat-capacity models: constant cp, or NASA 7-coefficient polynomials cp(T). */
+export type HeatCapacityModelName = "constant" | "nasa7";
+
+/** Equations of state: the ideal gas, or Peng-Robinson (1976). */
+export type EquationOfStateName = "ideal-gas" | "peng-robinson";
+
+/** Which property models a gas should carry data for; absent fields mean the defaults. */
+export interface GasModelOptions {
+  /** @defaultValue "constant" */
+  heatCapacity?: HeatCapacityModelName;
+  /** @defaultValue "ideal-gas" */
+  equationOfState?: EquationOfStateName;
+}
+
+/** The components of the air preset for the NASA and Peng-Robinson data (ISO 2533). */
+function airParts(): { species: SpeciesName; moleFraction: number }[] {
+  const total = AIR_COMPOSITION.reduce((sum, part) => sum + part.molePercent, 0);
+  return AIR_COMPOSITION.map((part) => ({
+    species: part.species,
+    moleFraction: part.molePercent / total,
+  }));
+}
+
+/** The species a preset's model data are made of. */
+function presetParts(name: SpeciesName): { species: SpeciesName; moleFraction: number }[] {
+  return name === "air" ? airParts() : [{ species: name, moleFraction: 1 }];
+}
+
+/**
+ * The property models a preset has data for.
+ *
+ * @param name - one of {@link GAS_PRESET_NAMES}
+ * @returns the heat-capacity models and equations of state that {@link gasPreset} accepts for it
+ * @example gasPresetModels("natural-gas").heatCapacity // ["constant"] (no NASA data for its C4+ alkanes)
+ */
+export function gasPresetModels(name: GasPresetName): {
+  heatCapacity: HeatCapacityModelName[];
+  equationOfState: EquationOfStateName[];
+} {
+  const species =
+    name === "natural-gas"
+      ? NATURAL_GAS_COMPOSITION.map((part) => part.species)
+      : presetParts(name).map((part) => part.species);
+  const hasCritical = species.every((part) => CRITICAL[part] !== undefined);
+  return {
+    heatCapacity: species.every((part) => NASA7[part] !== undefined)
+      ? ["constant", "nasa7"]
+      : ["constant"],
+    equationOfState: hasCritical ? ["ideal-gas", "peng-robinson"] : ["ideal-gas"],
+  };
+}
+
+/** A species of gas-presets.ts (or air) as a Gas (fresh objects throughout). */
+function speciesGas(name: SpeciesName, models: GasModelOptions): Gas {
   const data = SPECIES[name];
   const heatCapacityRatio =
     "heatCapacityRatio" in data.heat
       ? data.heat.heatCapacityRatio
       : data.heat.molarHeatCapacity / (data.heat.molarHeatCapacity - MOLAR_GAS_CONSTANT);
-  return idealGas({
+  const parts = presetParts(name);
+  const spec: Parameters<typeof idealGas>[0] = {
     name,
     molarMass: data.molarMass,
     heatCapacityRatio,
     viscosityLaw: { ...data.viscosity },
-  });
+  };
+  if (models.heatCapacity === "nasa7") {
+    spec.heatCapacity = {
+      kind: "nasa7",
+      species: parts.map((part) => {
+        const nasa = NASA7[part.species];
+        if (nasa === undefined) {
+          throw new RangeError(`gasPreset: "${part.species}" has no NASA 7-coefficient data`);
+        }
+        return {
+          name: nasa.formula,
+          moleFraction: part.moleFraction,
+          molarMass: SPECIES[part.species].molarMass,
+          lowTemperature: nasa.lowTemperature,
+          commonTemperature: nasa.commonTemperature,
+          highTemperature: nasa.highTemperature,
+          lowCoefficients: [...nasa.low],
+          highCoefficients: [...nasa.high],
+        };
+      }),
+    };
+  }
+  if (models.equationOfState === "peng-robinson") {
+    spec.equationOfState = {
+      kind: "peng-robinson",
+      components: parts.map((part) => {
+        const critical = CRITICAL[part.species];
+        if (critical === undefined) {
+          throw new RangeError(`gasPreset: "${part.species}" has no critical constants`);
+        }
+        return {
+          name: part.species,
+          moleFraction: part.moleFraction,
+          ...critical,
+          molarMass: SPECIES[part.species].molarMass,
+        };
+      }),
+    };
+  }
+  return idealGas(spec);
 }
 
 /**
@@ -130,7 +257,13 @@ function speciesGas(name: SpeciesName): Gas {
  *   but larger values are accepted)
  * @param spec.viscosityLaw - Sutherland (mu0 > 0, T0 > 0, S >= 0), constant (mu > 0) or
  *   Wilke (components with mole fractions >= 0 summing to 1 within 1e-6)
- * @returns the gas; the law is copied, so later changes to `spec` do not reach it
+ * @param spec.heatCapacity - optional NASA 7-coefficient data (see {@link gasState}): species
+ *   with mole fractions summing to 1 within 1e-6, 7 finite coefficients per range and
+ *   0 < low < common < high temperatures [K]
+ * @param spec.equationOfState - optional Peng-Robinson data: components with mole fractions
+ *   summing to 1 within 1e-6, Tc > 0 [K], pc > 0 [Pa], finite omega [-], M > 0 [kg/mol], and
+ *   an optional square k_ij matrix of finite numbers
+ * @returns the gas; the law and the data are copied, so later changes to `spec` do not reach it
  * @throws RangeError naming the offending field and its value
  * @remarks Ideal gas, constant cp. Source of the relations: J. D. Anderson, Modern Compressible
  *   Flow, 3rd ed., McGraw-Hill 2003, ch. 1 (review of thermodynamics: cp - cv = R, gamma = cp / cv).
@@ -141,6 +274,8 @@ export function idealGas(spec: {
   molarMass: number;
   heatCapacityRatio: number;
   viscosityLaw: ViscosityLaw;
+  heatCapacity?: Nasa7HeatCapacity;
+  equationOfState?: PengRobinsonEquationOfState;
 }): Gas {
   const where = "idealGas";
   const molarMass = spec.molarMass;
@@ -162,7 +297,7 @@ export function idealGas(spec: {
   }
   const viscosityLaw = checkedViscosityLaw(spec.viscosityLaw, `${where}: viscosityLaw`);
   const specificGasConstant = MOLAR_GAS_CONSTANT / molarMass;
-  return {
+  const gas: Gas = {
     name: spec.name ?? "custom",
     molarMass,
     specificGasConstant,
@@ -170,6 +305,136 @@ export function idealGas(spec: {
     specificHeatCp: (gamma * specificGasConstant) / (gamma - 1),
     viscosityLaw,
   };
+  if (spec.heatCapacity !== undefined) {
+    gas.heatCapacity = checkedHeatCapacity(spec.heatCapacity, `${where}: heatCapacity`);
+  }
+  if (spec.equationOfState !== undefined) {
+    gas.equationOfState = checkedEquationOfState(spec.equationOfState, `${where}: equationOfState`);
+  }
+  return gas;
+}
+
+/** Throws RangeError unless the mole fractions are finite, >= 0 and sum to 1 within 1e-6. */
+function checkFractions(fractions: readonly number[], where: string): void {
+  fractions.forEach((x, index) => {
+    if (!(Number.isFinite(x) && x >= 0)) {
+      throw new RangeError(
+        `${where}[${index}].moleFraction must be a finite number >= 0 (got ${String(x)})`,
+      );
+    }
+  });
+  const sum = fractions.reduce((total, x) => total + x, 0);
+  if (!(Math.abs(sum - 1) <= MOLE_FRACTION_SUM_TOLERANCE)) {
+    throw new RangeError(
+      `${where}: mole fractions must sum to 1 within ${MOLE_FRACTION_SUM_TOLERANCE} (got ${sum})`,
+    );
+  }
+}
+
+/** A checked copy of NASA 7-coefficient data. */
+function checkedHeatCapacity(data: Nasa7HeatCapacity, where: string): Nasa7HeatCapacity {
+  if (data?.kind !== "nasa7" || !Array.isArray(data.species) || data.species.length === 0) {
+    throw new RangeError(`${where} must be { kind: "nasa7", species: [...] } with species`);
+  }
+  checkFractions(
+    data.species.map((species) => species.moleFraction),
+    `${where}.species`,
+  );
+  return {
+    kind: "nasa7",
+    species: data.species.map((species, index) => {
+      const at = `${where}.species[${index}]`;
+      const { lowTemperature, commonTemperature, highTemperature } = species;
+      if (
+        !(
+          Number.isFinite(highTemperature) &&
+          lowTemperature > 0 &&
+          lowTemperature < commonTemperature &&
+          commonTemperature < highTemperature
+        )
+      ) {
+        throw new RangeError(
+          `${at}: temperatures must satisfy 0 < low < common < high K (got ${lowTemperature}, ${commonTemperature}, ${highTemperature})`,
+        );
+      }
+      for (const range of ["lowCoefficients", "highCoefficients"] as const) {
+        const coefficients = species[range];
+        if (
+          !(
+            Array.isArray(coefficients) &&
+            coefficients.length === 7 &&
+            coefficients.every(Number.isFinite)
+          )
+        ) {
+          throw new RangeError(`${at}.${range} must be 7 finite numbers a1..a7`);
+        }
+      }
+      requirePositive(at, "molarMass", species.molarMass, "kg/mol");
+      return {
+        name: String(species.name),
+        moleFraction: species.moleFraction,
+        molarMass: species.molarMass,
+        lowTemperature,
+        commonTemperature,
+        highTemperature,
+        lowCoefficients: [...species.lowCoefficients],
+        highCoefficients: [...species.highCoefficients],
+      };
+    }),
+  };
+}
+
+/** A checked copy of Peng-Robinson data. */
+function checkedEquationOfState(
+  data: PengRobinsonEquationOfState,
+  where: string,
+): PengRobinsonEquationOfState {
+  if (
+    data?.kind !== "peng-robinson" ||
+    !Array.isArray(data.components) ||
+    data.components.length === 0
+  ) {
+    throw new RangeError(
+      `${where} must be { kind: "peng-robinson", components: [...] } with components`,
+    );
+  }
+  checkFractions(
+    data.components.map((component) => component.moleFraction),
+    `${where}.components`,
+  );
+  const components = data.components.map((component, index) => {
+    const at = `${where}.components[${index}]`;
+    requirePositive(at, "criticalTemperature", component.criticalTemperature, "K");
+    requirePositive(at, "criticalPressure", component.criticalPressure, "Pa");
+    requireFinite(at, "acentricFactor", component.acentricFactor, "");
+    requirePositive(at, "molarMass", component.molarMass, "kg/mol");
+    return {
+      name: String(component.name),
+      moleFraction: component.moleFraction,
+      criticalTemperature: component.criticalTemperature,
+      criticalPressure: component.criticalPressure,
+      acentricFactor: component.acentricFactor,
+      molarMass: component.molarMass,
+    };
+  });
+  const checked: PengRobinsonEquationOfState = { kind: "peng-robinson", components };
+  const matrix = data.binaryInteraction;
+  if (matrix !== undefined) {
+    const n = components.length;
+    if (
+      !(
+        Array.isArray(matrix) &&
+        matrix.length === n &&
+        matrix.every((row) => Array.isArray(row) && row.length === n && row.every(Number.isFinite))
+      )
+    ) {
+      throw new RangeError(
+        `${where}.binaryInteraction must be a ${n} x ${n} matrix of finite numbers`,
+      );
+    }
+    checked.binaryInteraction = matrix.map((row) => [...row]);
+  }
+  return checked;
 }
 
 /** A checked copy of a viscosity law; throws RangeError naming `where` and the bad value. */
@@ -330,7 +595,74 @@ export function gasMixture(
     molarMass,
     heatCapacityRatio: molarCp / molarCv,
     viscosityLaw: { kind: "wilke", components: wilkeComponents },
+    ...mixtureModelData(components, sum),
   });
+}
+
+/**
+ * The NASA and Peng-Robinson data of a mixture: each component's species (or equation-of-state
+ * components) with their fractions multiplied by the component's; k_ij kept within a component
+ * and 0 between components. Either every component carries a model's data or none does.
+ */
+function mixtureModelData(
+  components: readonly { gas: Gas; moleFraction: number }[],
+  sum: number,
+): { heatCapacity?: Nasa7HeatCapacity; equationOfState?: PengRobinsonEquationOfState } {
+  const data: { heatCapacity?: Nasa7HeatCapacity; equationOfState?: PengRobinsonEquationOfState } =
+    {};
+  for (const field of ["heatCapacity", "equationOfState"] as const) {
+    const having = components.filter((component) => component.gas[field] !== undefined).length;
+    if (having !== 0 && having !== components.length) {
+      const missing = components.findIndex((component) => component.gas[field] === undefined);
+      throw new RangeError(
+        `gasMixture: components[${missing}] has no ${field} data while others have; give every component the same property models`,
+      );
+    }
+  }
+  if (components[0]?.gas.heatCapacity !== undefined) {
+    data.heatCapacity = {
+      kind: "nasa7",
+      species: components.flatMap((component) =>
+        (component.gas.heatCapacity as Nasa7HeatCapacity).species.map((species) => ({
+          ...species,
+          moleFraction: (species.moleFraction * component.moleFraction) / sum,
+        })),
+      ),
+    };
+  }
+  if (components[0]?.gas.equationOfState !== undefined) {
+    const parts = components.map(
+      (component) => component.gas.equationOfState as PengRobinsonEquationOfState,
+    );
+    const merged = parts.flatMap((eos, index) =>
+      eos.components.map((part) => ({
+        ...part,
+        moleFraction:
+          (part.moleFraction * (components[index] as { moleFraction: number }).moleFraction) / sum,
+      })),
+    );
+    const equationOfState: PengRobinsonEquationOfState = {
+      kind: "peng-robinson",
+      components: merged,
+    };
+    if (parts.some((eos) => eos.binaryInteraction !== undefined)) {
+      const n = merged.length;
+      const matrix = Array.from({ length: n }, () => new Array<number>(n).fill(0));
+      let offset = 0;
+      for (const eos of parts) {
+        const size = eos.components.length;
+        for (let i = 0; i < size; i++) {
+          for (let j = 0; j < size; j++) {
+            (matrix[offset + i] as number[])[offset + j] = eos.binaryInteraction?.[i]?.[j] ?? 0;
+          }
+        }
+        offset += size;
+      }
+      equationOfState.binaryInteraction = matrix;
+    }
+    data.equationOfState = equationOfState;
+  }
+  return data;
 }
 
 /** Throws RangeError unless `value` is finite and > 0. */

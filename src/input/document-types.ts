@@ -23,6 +23,16 @@ export interface GasInput {
   gamma?: number;
   viscosity?: QuantityInput | SutherlandInput;
   components?: { preset: string; moleFraction: number }[];
+  /** Ideal-gas heat capacity model; default "constant". */
+  heatCapacity?: "constant" | "nasa7";
+  /** Equation of state; default "ideal-gas". */
+  equationOfState?: "ideal-gas" | "peng-robinson";
+  /** Custom gas with "peng-robinson": Tc. */
+  criticalTemperature?: QuantityInput;
+  /** Custom gas with "peng-robinson": pc, absolute. */
+  criticalPressure?: QuantityInput;
+  /** Custom gas with "peng-robinson": omega [-]. */
+  acentricFactor?: number;
 }
 
 /** Pipe models of the network solver. */

@@ -24,7 +24,9 @@ export type InputIssue =
   /** A connected part of the network with no reservoir: its pressure level is undefined. */
   | { code: "no-reservoir"; path: string; message: string; nodeIds: string[] }
   /** The document as a whole cannot be used (empty file, not an object, too large). */
-  | { code: "document"; path: string; message: string };
+  | { code: "document"; path: string; message: string }
+  /** A valid request that this version cannot carry out (a gas model no edge model supports yet). */
+  | { code: "unsupported"; path: string; message: string };
 
 /** The codes of {@link InputIssue}, for callers that tabulate them. */
 export type InputIssueCode = InputIssue["code"];

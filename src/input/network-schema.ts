@@ -54,7 +54,7 @@ export const networkSchema = {
     gas: {
       type: "object",
       description:
-        'One of: { "preset": NAME }; a custom ideal gas { "molarMass", "gamma", "viscosity" }; or a mixture { "components": [...] } by mole fraction. Default: air.',
+        'One of: { "preset": NAME }; a custom ideal gas { "molarMass", "gamma", "viscosity" }; or a mixture { "components": [...] } by mole fraction. Default: air. Optional property models: "heatCapacity" and "equationOfState".',
       additionalProperties: false,
       properties: {
         preset: { type: "string", maxLength: 64 },
@@ -67,6 +67,30 @@ export const networkSchema = {
         viscosity: {
           description: "Dynamic viscosity: a constant (Pa s) or Sutherland constants.",
           anyOf: [quantity, sutherland],
+        },
+        heatCapacity: {
+          enum: ["constant", "nasa7"],
+          description:
+            'Ideal-gas heat capacity: "constant" (cp at 298.15 K; default) or "nasa7" (cp(T) from NASA 7-coefficient polynomials; presets and mixtures of presets that have the data).',
+        },
+        equationOfState: {
+          enum: ["ideal-gas", "peng-robinson"],
+          description:
+            'Equation of state: "ideal-gas" (default) or "peng-robinson" (Peng and Robinson 1976; a custom gas needs criticalTemperature, criticalPressure and acentricFactor).',
+        },
+        criticalTemperature: {
+          ...quantity,
+          description:
+            'Custom gas with "peng-robinson": critical temperature Tc (K or a temperature string).',
+        },
+        criticalPressure: {
+          ...quantity,
+          description:
+            'Custom gas with "peng-robinson": critical pressure pc, absolute (Pa or e.g. "45.99 bar").',
+        },
+        acentricFactor: {
+          type: "number",
+          description: 'Custom gas with "peng-robinson": acentric factor omega [-].',
         },
         components: {
           type: "array",

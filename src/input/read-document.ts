@@ -5,23 +5,24 @@
  */
 import { Ajv2020, type ErrorObject } from "ajv/dist/2020.js";
 import { type ParseError, parse as parseTolerant, printParseErrorCode } from "jsonc-parser";
-import { GAS_PRESET_NAMES, gasMixture, gasPreset, idealGas, isGasPresetName } from "../gas/gas.js";
-import type { Gas, ViscosityLaw } from "../gas/gas-types.js";
 import type {
   CheckedDocument,
   CheckedEdge,
   CheckedNode,
   DesignLimits,
-  GasInput,
   InputNote,
   NetworkDocument,
   QuantityInput,
   SolverSettings,
 } from "./document-types.js";
+import { INPUT_RANGES, inRange } from "./input-ranges.js";
 import { InputError, type InputIssue, jsonPointer, pointerSegment, sortIssues } from "./issues.js";
 import { networkSchema } from "./network-schema.js";
 import { parseQuantity, type QuantityKind } from "./quantity.js";
 import { readComponentEdge, readPipeExtras } from "./read-components.js";
+import { gasModelSupportIssues, readGas } from "./read-gas.js";
+
+export { INPUT_RANGES, type InputRange } from "./input-ranges.js";
 
 /** Defaults of the solver settings, documented in docs/model.md. */
 export const DEFAULT_SETTINGS = {
@@ -428,6 +429,8 @@ function convertDocument(doc: NetworkDocument): ReadResult {
     readEdge(edge, index, settings.pipeModel, reader),
   );
 
+  if (gas !== undefined) gasModelSupportIssues(gas, edges, reader);
+
   if (reader.issues.length > 0 || gas === undefined) {
     return { ok: false, issues: sortIssues(reader.issues) };
   }
@@ -444,237 +447,6 @@ function convertDocument(doc: NetworkDocument): ReadResult {
       notes: reader.notes,
     },
   };
-}
-
-function readGas(input: GasInput | undefined, reader: Reader): Gas | undefined {
-  if (input === undefined) return gasPreset("air");
-  const forms = [
-    input.preset !== undefined ? "preset" : undefined,
-    input.molarMass !== undefined || input.gamma !== undefined || input.viscosity !== undefined
-      ? "custom"
-      : undefined,
-    input.components !== undefined ? "components" : undefined,
-  ].filter((form) => form !== undefined);
-  if (forms.length !== 1) {
-    reader.fail({
-      code: "schema",
-      path: "/gas",
-      message:
-        forms.length === 0
-          ? 'give one of "preset", a custom gas ("molarMass", "gamma", "viscosity") or "components"'
-          : `give only one of "preset", a custom gas or "components" (got ${forms.join(" and ")})`,
-    });
-    return undefined;
-  }
-  const presetList = GAS_PRESET_NAMES.join(", ");
-  if (input.preset !== undefined) {
-    if (!isGasPresetName(input.preset)) {
-      reader.fail({
-        code: "schema",
-        path: "/gas/preset",
-        message: `unknown gas "${input.preset}"; presets: ${presetList}`,
-      });
-      return undefined;
-    }
-    return gasPreset(input.preset);
-  }
-  if (input.components !== undefined) {
-    let bad = false;
-    input.components.forEach((component, index) => {
-      if (!isGasPresetName(component.preset)) {
-        reader.fail({
-          code: "schema",
-          path: `/gas/components/${index}/preset`,
-          message: `unknown gas "${component.preset}"; presets: ${presetList}`,
-        });
-        bad = true;
-      }
-    });
-    const sum = input.components.reduce((total, component) => total + component.moleFraction, 0);
-    if (Math.abs(sum - 1) > 1e-6) {
-      reader.fail({
-        code: "value",
-        path: "/gas/components",
-        value: sum,
-        message: `mole fractions must add up to 1 (they add up to ${sum})`,
-      });
-      bad = true;
-    }
-    if (bad) return undefined;
-    return gasMixture(
-      input.components.map((component) => ({
-        gas: gasPreset(component.preset as Parameters<typeof gasPreset>[0]),
-        moleFraction: component.moleFraction,
-      })),
-      input.name ?? "mixture",
-    );
-  }
-  // Custom ideal gas: all three parts are needed.
-  let bad = false;
-  for (const field of ["molarMass", "gamma", "viscosity"] as const) {
-    if (input[field] === undefined) {
-      reader.fail({
-        code: "schema",
-        path: "/gas",
-        message: `a custom gas needs "${field}" (give "molarMass", "gamma" and "viscosity")`,
-      });
-      bad = true;
-    }
-  }
-  if (bad) return undefined;
-  const molarMass = inRange(
-    reader,
-    reader.positive(input.molarMass, "molarMass", "/gas/molarMass"),
-    input.molarMass,
-    "/gas/molarMass",
-    INPUT_RANGES.molarMass,
-  );
-  const gamma = input.gamma as number;
-  if (!(gamma > 1 && gamma < 2)) {
-    reader.fail({
-      code: "value",
-      path: "/gas/gamma",
-      value: gamma,
-      message: `the heat capacity ratio must lie between 1 and 2 (got ${gamma})`,
-    });
-    bad = true;
-  }
-  const viscosityLaw = readViscosity(input.viscosity as NonNullable<GasInput["viscosity"]>, reader);
-  if (bad || molarMass === undefined || viscosityLaw === undefined) return undefined;
-  return idealGas({
-    name: input.name ?? "custom",
-    molarMass,
-    heatCapacityRatio: gamma,
-    viscosityLaw,
-  });
-}
-
-function readViscosity(
-  input: NonNullable<GasInput["viscosity"]>,
-  reader: Reader,
-): ViscosityLaw | undefined {
-  if (typeof input === "number" || typeof input === "string") {
-    const viscosity = inRange(
-      reader,
-      reader.positive(input, "viscosity", "/gas/viscosity"),
-      input,
-      "/gas/viscosity",
-      INPUT_RANGES.viscosity,
-    );
-    return viscosity === undefined ? undefined : { kind: "constant", viscosity };
-  }
-  const referenceViscosity = inRange(
-    reader,
-    reader.positive(input.referenceViscosity, "viscosity", "/gas/viscosity/referenceViscosity"),
-    input.referenceViscosity,
-    "/gas/viscosity/referenceViscosity",
-    INPUT_RANGES.viscosity,
-  );
-  const referenceTemperature = inRange(
-    reader,
-    reader.quantity(
-      input.referenceTemperature,
-      "temperature",
-      "/gas/viscosity/referenceTemperature",
-    ),
-    input.referenceTemperature,
-    "/gas/viscosity/referenceTemperature",
-    INPUT_RANGES.temperature,
-  );
-  const sutherlandConstant = inRange(
-    reader,
-    reader.positive(
-      input.sutherlandConstant,
-      "temperatureDifference",
-      "/gas/viscosity/sutherlandConstant",
-    ),
-    input.sutherlandConstant,
-    "/gas/viscosity/sutherlandConstant",
-    INPUT_RANGES.sutherlandConstant,
-  );
-  if (
-    referenceViscosity === undefined ||
-    referenceTemperature === undefined ||
-    sutherlandConstant === undefined
-  ) {
-    return undefined;
-  }
-  return { kind: "sutherland", referenceViscosity, referenceTemperature, sutherlandConstant };
-}
-
-/** The plausible range of one input of the ideal-gas network model, in SI. */
-export interface InputRange {
-  /** Smallest and largest accepted value, in `unit`. */
-  low: number;
-  high: number;
-  unit: string;
-  /** What the range is of, for messages: "the ideal-gas model's temperatures". */
-  what: string;
-}
-
-/**
- * Plausible ranges of the inputs of the ideal-gas network model. A value outside one is
- * physically impossible for the model, or a unit slip, and is refused with its JSON Pointer and
- * the range. The reasons (docs/model.md, "Input ranges"; common practice, no source):
- * - temperature 20 K to 3000 K: below 20 K every gas but helium has condensed (hydrogen boils
- *   at about 20.3 K at 1 atm, from memory) and helium is far from ideal; above 3000 K oxygen and
- *   nitrogen dissociate and a constant cp is far off. The same range holds for the ambient
- *   temperature and a Sutherland reference temperature.
- * - reservoir pressure 100 Pa to 1e8 Pa (1000 bar) absolute: below 100 Pa the mean free path of
- *   air (about 70 um, from the 68 nm at 1 atm, from memory) is no longer small against small
- *   bores and the continuum friction laws lose their footing; above 1000 bar no gas is near
- *   ideal.
- * - ambient (barometric) pressure 10 kPa to 1 MPa: the atmosphere with room on both sides; a
- *   barometric pressure written in mbar, hPa or kPa but read as Pa falls outside.
- * - demand (and injection) at most 1e5 kg/s either way: a hundred times the flow of the largest
- *   gas trunk lines (about 1000 kg/s); beyond it a value is a unit slip.
- * - molar mass 1 g/mol to 1 kg/mol: the lightest gas is hydrogen (2.016 g/mol); a vapour of more
- *   than 1 kg/mol is no gas at pipe conditions.
- * - dynamic viscosity 1e-7 Pa s to 1e-3 Pa s: gases lie between about 1e-6 and 1e-4 Pa s; a
- *   value in uPa s or cP read as Pa s falls outside.
- * - Sutherland constant at most 1e4 K (those of common gases lie between about 70 K and 300 K,
- *   from memory).
- */
-export const INPUT_RANGES = Object.freeze({
-  temperature: { low: 20, high: 3000, unit: "K", what: "the ideal-gas model's temperatures" },
-  pressure: { low: 100, high: 1e8, unit: "Pa", what: "absolute pressures of the model" },
-  ambientPressure: { low: 1e4, high: 1e6, unit: "Pa", what: "barometric pressures" },
-  demand: { low: -1e5, high: 1e5, unit: "kg/s", what: "flows of gas networks" },
-  molarMass: { low: 1e-3, high: 1, unit: "kg/mol", what: "molar masses of gases" },
-  viscosity: { low: 1e-7, high: 1e-3, unit: "Pa s", what: "viscosities of gases" },
-  sutherlandConstant: { low: 0, high: 1e4, unit: "K", what: "Sutherland constants" },
-} satisfies Record<string, InputRange>);
-
-/**
- * The value if it lies in the range (inclusive), otherwise undefined and an issue at `path`
- * naming the value, the range and what it is of. An undefined value passes through.
- */
-function inRange(
-  reader: Reader,
-  value: number | undefined,
-  input: QuantityInput | undefined,
-  path: string,
-  range: InputRange,
-): number | undefined {
-  if (value === undefined) return undefined;
-  if (value >= range.low && value <= range.high) return value;
-  reader.fail({
-    code: "value",
-    path,
-    value: input ?? value,
-    message: `${rangeNumber(value)} ${range.unit} is outside the range of ${range.what}: ${rangeNumber(range.low)} to ${rangeNumber(range.high)} ${range.unit} (got ${JSON.stringify(input)})`,
-  });
-  return undefined;
-}
-
-/** A number for a range message: four digits, powers of ten as "1e8" when large or small. */
-function rangeNumber(value: number): string {
-  const rounded = Number(value.toPrecision(4));
-  const size = Math.abs(rounded);
-  if (size !== 0 && (size >= 1e4 || size < 1e-3)) {
-    return rounded.toExponential().replace("e+", "e");
-  }
-  return String(rounded);
 }
 
 function readNode(

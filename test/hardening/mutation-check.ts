@@ -19,6 +19,7 @@ const ISSUE_CODES: ReadonlySet<InputIssueCode> = new Set<InputIssueCode>([
   "isolated-node",
   "no-reservoir",
   "document",
+  "unsupported",
 ]);
 
 /** Wall-time budget of every mutated solve [ms]: a hang ends here as a not-converged result. */

@@ -1,0 +1,182 @@
+/**
+ * Data behind the temperature-dependent heat capacity (NASA 7-coefficient polynomials) and the
+ * Peng-Robinson equation of state of the presets. Plain numbers only; src/gas/gas.ts attaches
+ * them to `Gas` objects on request. docs/model.md tabulates the sources.
+ *
+ * Every value here is FROM MEMORY (no copy of the sources was at hand) and is confirmed by the
+ * closed-form checks of test/gas/gas-models.test.ts: continuity of cp, h and s at the common
+ * temperature, h(298.15 K) against the enthalpy of formation, cp/R = 5/2 for monatomic gases,
+ * cp near 298.15 K against the presets' own cp, and cp against independent tables.
+ */
+
+import type { SpeciesName } from "./gas-presets.js";
+
+/** One species' NASA 7-coefficient polynomial: ranges [K] and a1..a7 of each range. */
+export interface Nasa7Data {
+  formula: string;
+  lowTemperature: number;
+  commonTemperature: number;
+  highTemperature: number;
+  low: readonly number[];
+  high: readonly number[];
+}
+
+/**
+ * NASA 7-coefficient polynomials, source: A. Burcat and B. Ruscic, Third Millennium Ideal Gas
+ * and Condensed Phase Thermochemical Database for Combustion with Updates from Active
+ * Thermochemical Tables, Argonne National Laboratory ANL-05/20 (2005), the "Burcat database".
+ * From memory: the recalled sets are the Burcat entries as they are also reproduced in the
+ * thermodynamic file of GRI-Mech 3.0 (O2, H2, CH4, CO2) and in the database itself (N2, Ar,
+ * He). Argon and helium: cp/R = 5/2 exactly, a6 = -745.375 (h = 0 at 298.15 K), a7 from the
+ * standard entropy.
+ *
+ * Species that are not here have no NASA data in machnet: the C4+ alkanes of the natural-gas
+ * preset (their recalled coefficients failed the continuity check), and so natural gas itself.
+ */
+export const NASA7: Partial<Record<SpeciesName, Nasa7Data>> = {
+  nitrogen: {
+    formula: "N2",
+    lowTemperature: 200,
+    commonTemperature: 1000,
+    highTemperature: 6000,
+    low: [
+      3.53100528, -1.23660988e-4, -5.02999433e-7, 2.43530612e-9, -1.40881235e-12, -1.04697628e3,
+      2.96747038,
+    ],
+    high: [
+      2.95257637, 1.3969004e-3, -4.92631603e-7, 7.86010195e-11, -4.60755204e-15, -9.23948688e2,
+      5.87188762,
+    ],
+  },
+  oxygen: {
+    formula: "O2",
+    lowTemperature: 200,
+    commonTemperature: 1000,
+    highTemperature: 3500,
+    low: [
+      3.78245636, -2.99673416e-3, 9.84730201e-6, -9.68129509e-9, 3.24372837e-12, -1.06394356e3,
+      3.65767573,
+    ],
+    high: [
+      3.28253784, 1.48308754e-3, -7.57966669e-7, 2.09470555e-10, -2.16717794e-14, -1.08845772e3,
+      5.45323129,
+    ],
+  },
+  argon: {
+    formula: "Ar",
+    lowTemperature: 200,
+    commonTemperature: 1000,
+    highTemperature: 6000,
+    low: [2.5, 0, 0, 0, 0, -745.375, 4.37967491],
+    high: [2.5, 0, 0, 0, 0, -745.375, 4.37967491],
+  },
+  helium: {
+    formula: "He",
+    lowTemperature: 200,
+    commonTemperature: 1000,
+    highTemperature: 6000,
+    low: [2.5, 0, 0, 0, 0, -745.375, 0.928723974],
+    high: [2.5, 0, 0, 0, 0, -745.375, 0.928723974],
+  },
+  hydrogen: {
+    formula: "H2",
+    lowTemperature: 200,
+    commonTemperature: 1000,
+    highTemperature: 3500,
+    low: [
+      2.34433112, 7.98052075e-3, -1.9478151e-5, 2.01572094e-8, -7.37611761e-12, -9.17935173e2,
+      6.83010238e-1,
+    ],
+    high: [
+      3.3372792, -4.94024731e-5, 4.99456778e-7, -1.79566394e-10, 2.00255376e-14, -9.50158922e2,
+      -3.20502331,
+    ],
+  },
+  "carbon-dioxide": {
+    formula: "CO2",
+    lowTemperature: 200,
+    commonTemperature: 1000,
+    highTemperature: 3500,
+    low: [
+      2.35677352, 8.98459677e-3, -7.12356269e-6, 2.45919022e-9, -1.43699548e-13, -4.83719697e4,
+      9.90105222,
+    ],
+    high: [
+      3.85746029, 4.41437026e-3, -2.21481404e-6, 5.23490188e-10, -4.72084164e-14, -4.8759166e4,
+      2.27163806,
+    ],
+  },
+  methane: {
+    formula: "CH4",
+    lowTemperature: 200,
+    commonTemperature: 1000,
+    highTemperature: 3500,
+    low: [
+      5.14987613, -1.36709788e-2, 4.91800599e-5, -4.84743026e-8, 1.66693956e-11, -1.02466476e4,
+      -4.64130376,
+    ],
+    high: [
+      7.4851495e-2, 1.33909467e-2, -5.73285809e-6, 1.22292535e-9, -1.0181523e-13, -9.46834459e3,
+      1.8437318e1,
+    ],
+  },
+};
+
+/** Critical constants and acentric factor of one species. */
+export interface CriticalData {
+  /** Tc [K]. */
+  criticalTemperature: number;
+  /** pc [Pa]. */
+  criticalPressure: number;
+  /** omega [-]. */
+  acentricFactor: number;
+}
+
+const BAR = 1e5;
+
+/**
+ * Critical constants and acentric factors, source: B. E. Poling, J. M. Prausnitz and
+ * J. P. O'Connell, The Properties of Gases and Liquids, 5th ed., McGraw-Hill 2001, Appendix A
+ * (Tc in K, pc in bar, omega). From memory; test/gas/gas-models.test.ts checks the
+ * compressibility they give against reference-equation values and the critical point of each
+ * against the Peng-Robinson critical compressibility 0.3074.
+ */
+export const CRITICAL: Partial<Record<SpeciesName, CriticalData>> = {
+  nitrogen: critical(126.2, 33.98, 0.037),
+  oxygen: critical(154.58, 50.43, 0.022),
+  argon: critical(150.86, 48.98, -0.002),
+  helium: critical(5.19, 2.27, -0.39),
+  hydrogen: critical(33.19, 13.13, -0.216),
+  "carbon-dioxide": critical(304.12, 73.74, 0.225),
+  methane: critical(190.56, 45.99, 0.011),
+  ethane: critical(305.32, 48.72, 0.099),
+  propane: critical(369.83, 42.48, 0.152),
+  isobutane: critical(407.85, 36.4, 0.186),
+  "n-butane": critical(425.12, 37.96, 0.2),
+  isopentane: critical(460.39, 33.81, 0.229),
+  "n-pentane": critical(469.7, 33.7, 0.252),
+  "n-hexane": critical(507.6, 30.25, 0.3),
+};
+
+function critical(temperature: number, pressureBar: number, acentricFactor: number): CriticalData {
+  return {
+    criticalTemperature: temperature,
+    criticalPressure: pressureBar * BAR,
+    acentricFactor,
+  };
+}
+
+/**
+ * Dry air as a mixture for the temperature-dependent and real-gas models: the composition of
+ * ISO 2533:1975 Table 1 (mole percent N2 78.084, O2 20.9476, Ar 0.934, CO2 0.0314; the
+ * remaining 0.0030 % of Ne, He, Kr, H2... are left out and the four are divided by their sum).
+ * From memory; the molar mass it gives, 28.9648 g/mol, agrees with ISO 2533's 28.96442 within
+ * 2.3e-5 relative (checked in test/gas/gas-models.test.ts). The air preset's own molar mass
+ * and reference cp are kept: only the cp(T) shape and the equation of state come from this.
+ */
+export const AIR_COMPOSITION: readonly { species: SpeciesName; molePercent: number }[] = [
+  { species: "nitrogen", molePercent: 78.084 },
+  { species: "oxygen", molePercent: 20.9476 },
+  { species: "argon", molePercent: 0.934 },
+  { species: "carbon-dioxide", molePercent: 0.0314 },
+];
