@@ -125,6 +125,7 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
   }));
   let diagnosis: NoSolutionDiagnosis | undefined;
   let status: NetworkResult["status"] = outcome.converged ? "converged" : "not-converged";
+  let stopReason = outcome.stopReason;
 
   if (!outcome.converged && outcome.stopReason !== "time") {
     const rescue = continuation(system, newtonOptions);
@@ -136,6 +137,10 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
         code: "continuation",
         message: `solved by ramping the demands up from zero in ${rescue.steps} steps (plain Newton from the first guess did not converge)`,
       });
+    } else if (rescue.timedOut) {
+      // Cut short by the time limit: the largest scale reached so far says nothing about the
+      // largest feasible one, so there is no evidence of infeasibility (defect M).
+      stopReason = "time";
     } else if (rescue.scale > 0 && rescue.scale < 1 && hasDemands(system)) {
       // Evidence of infeasibility: part of the demand solves, more does not, and edges are at
       // their capacity there. Without that evidence the result stays "not converged".
@@ -170,7 +175,7 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
   if (status === "not-converged") {
     warnings.unshift({
       code: "not-converged",
-      message: `not converged after ${iterations} iterations (${outcome.stopReason ?? "iterations"}); largest scaled residual ${Math.max(outcome.massResidual, outcome.energyResidual).toExponential(2)}: the numbers below are the best iterate, not a solution`,
+      message: `not converged after ${iterations} iterations (${stopReason ?? "iterations"})${stopReason === "time" && limitMs !== undefined ? `, the time limit of ${limitMs} ms ran out` : ""}; largest scaled residual ${Math.max(outcome.massResidual, outcome.energyResidual).toExponential(2)}: the numbers below are the best iterate, not a solution`,
     });
   }
   if (status === "no-solution" && diagnosis) {
@@ -229,6 +234,8 @@ interface ContinuationOutcome {
   outcome: NewtonOutcome | undefined;
   iterations: number;
   steps: number;
+  /** The time limit ended the ramp before it reached the stated demands or gave up. */
+  timedOut: boolean;
 }
 
 /** The system with every demand multiplied by `scale` (injections too). */
@@ -249,20 +256,30 @@ function continuation(
   const zero = withDemandScale(system, 0);
   let solved = newtonSolve(zero, initialGuess(zero), options);
   iterations += solved.iterations;
-  if (!solved.converged) return { scale: 0, outcome: undefined, iterations, steps };
+  if (!solved.converged) {
+    const timedOut = solved.stopReason === "time";
+    return { scale: 0, outcome: undefined, iterations, steps, timedOut };
+  }
   let scale = 0;
   let step = 0.25;
+  let timedOut = false;
   while (scale < 1 && step >= 1 / 1024) {
     if (
       options.deadline !== undefined &&
       options.now !== undefined &&
       options.now() > options.deadline
-    )
+    ) {
+      timedOut = true;
       break;
+    }
     const target = Math.min(1, scale + step);
     const attempt = newtonSolve(withDemandScale(system, target), solved.x, options);
     iterations += attempt.iterations;
     steps++;
+    if (attempt.stopReason === "time") {
+      timedOut = true;
+      break;
+    }
     if (attempt.converged) {
       scale = target;
       solved = attempt;
@@ -272,7 +289,7 @@ function continuation(
     }
   }
   // Evaluate the original system at the last solved state so flows and chokes are at hand.
-  return { scale, outcome: solved, iterations, steps };
+  return { scale, outcome: solved, iterations, steps, timedOut };
 }
 
 /** Why a network with fixed demands has no solution: how far it gets, and which edges choke. */
