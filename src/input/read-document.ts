@@ -4,7 +4,7 @@
  * (not only the first) and reported with its JSON Pointer.
  */
 import { Ajv2020, type ErrorObject } from "ajv/dist/2020.js";
-import { type ParseError, parse as parseTolerant, printParseErrorCode } from "jsonc-parser";
+import { printParseErrorCode } from "jsonc-parser";
 import { GAS_PRESET_NAMES, gasMixture, gasPreset, idealGas, isGasPresetName } from "../gas/gas.js";
 import type { Gas, ViscosityLaw } from "../gas/gas-types.js";
 import type {
@@ -19,6 +19,7 @@ import type {
   SolverSettings,
 } from "./document-types.js";
 import { InputError, type InputIssue, jsonPointer, pointerSegment, sortIssues } from "./issues.js";
+import { firstJsonSyntaxError } from "./json-syntax-error.js";
 import { networkSchema } from "./network-schema.js";
 import { parseQuantity, type QuantityKind } from "./quantity.js";
 import { readComponentEdge, readPipeExtras } from "./read-components.js";
@@ -87,10 +88,8 @@ export function parseJsonText(
   try {
     return { ok: true, value: JSON.parse(body) };
   } catch {
-    // JSON.parse does not say where; a tolerant parser finds the first error's offset.
-    const errors: ParseError[] = [];
-    parseTolerant(body, errors, { allowTrailingComma: false, disallowComments: true });
-    const first = errors[0];
+    // JSON.parse does not say where; a walk over the tokens (stack-safe) finds the first error.
+    const first = firstJsonSyntaxError(body);
     const offset = first?.offset ?? 0;
     const { line, column } = lineAndColumn(body, offset);
     const what = first ? describeParseError(printParseErrorCode(first.error)) : "invalid JSON";

@@ -171,10 +171,11 @@ describe("defects, reduced to small networks", () => {
     expect(checked.issues.map((issue) => issue.path)).toContain("/edges/0/a~1b");
   });
 
-  // Defect I: parseJsonText catches JSON.parse's SyntaxError and asks jsonc-parser, which
-  // recurses once per nesting level, for the line and column: 10 000 unclosed brackets overflow
-  // the call stack and a RangeError escapes checkNetwork and solveNetwork (exit 3 in the CLI).
-  it.fails("invalid JSON nested 10 000 deep is an input error with line and column, not a RangeError (defect I)", () => {
+  // Defect I (fixed): parseJsonText caught JSON.parse's SyntaxError and asked jsonc-parser,
+  // which recurses once per nesting level, for the line and column: 10 000 unclosed brackets
+  // overflowed the call stack and a RangeError escaped checkNetwork and solveNetwork (exit 3 in
+  // the CLI). The first error is now found by a walk with its own stack.
+  it("invalid JSON nested 10 000 deep is an input error with line and column, not a RangeError (defect I)", () => {
     const text = `{"nodes": ${"[".repeat(10_000)}}`;
     let error: unknown;
     try {
@@ -184,6 +185,9 @@ describe("defects, reduced to small networks", () => {
     }
     expect(error).toBeInstanceOf(InputError);
     expect((error as InputError).issues[0]?.code).toBe("json-syntax");
+    expect((error as InputError).issues[0]?.message).toBe(
+      "invalid JSON at line 1, column 10011: value expected",
+    );
   });
 
   it("valid JSON nested 100 000 deep is an input error with a path (no stack overflow)", () => {
