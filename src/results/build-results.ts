@@ -25,7 +25,7 @@ export interface StateResults {
   nodes: NodeResult[];
   edges: EdgeResult[];
   balance: NetworkBalance;
-  /** Junctions that no gas flows through. */
+  /** Junctions that no gas flows through, by their position in `nodes` (the file's order). */
   noFlowJunctions: number[];
 }
 
@@ -173,10 +173,14 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     nodes.push({ id: node.id, kind: node.kind, pressure, temperature, demand });
   });
 
+  // Listed in the file's order (the model's is canonical, by id).
+  const { nodes: nodeInFile, edges: edgeInFile } = model.filePosition;
   return {
-    nodes,
-    edges,
-    noFlowJunctions,
+    nodes: inFileOrder(nodes, nodeInFile),
+    edges: inFileOrder(edges, edgeInFile),
+    noFlowJunctions: noFlowJunctions
+      .map((index) => nodeInFile[index] as number)
+      .sort((a, b) => a - b),
     balance: {
       throughput,
       massIn,
@@ -189,6 +193,15 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
       largestExitPressureMismatch,
     },
   };
+}
+
+/** Items in model order moved to the positions `filePosition` gives them. */
+function inFileOrder<T>(items: readonly T[], filePosition: Int32Array): T[] {
+  const ordered = new Array<T>(items.length);
+  items.forEach((item, index) => {
+    ordered[filePosition[index] as number] = item;
+  });
+  return ordered;
 }
 
 /** Warnings for choked edges, junctions without flow and exceeded design limits. */

@@ -305,6 +305,7 @@ function diagnose(
     const at = withDemandScale(system, rescue.scale);
     const evaluation = evaluateSystem(at, rescue.outcome.x, false);
     const scratch = new PipeFlowEvaluation();
+    const limitingIndices: number[] = [];
     for (let e = 0; e < system.edgeCount; e++) {
       const from = system.model.edgeFrom[e] as number;
       const to = system.model.edgeTo[e] as number;
@@ -325,8 +326,16 @@ function diagnose(
       const capacity = edgeState.capacity;
       if (edgeState.choked || (capacity > 0 && flow / capacity > 0.98)) {
         limitingEdges.push({ id: doc.edges[e]?.id ?? String(e), capacity, massFlow: flow });
+        limitingIndices.push(e);
       }
     }
+    // Listed in the file's order, as the results are (the model's order is by id).
+    const inFile = system.model.filePosition.edges;
+    const rank = limitingIndices.map((e) => inFile[e] as number);
+    const sorted = limitingEdges
+      .map((edge, k) => ({ edge, position: rank[k] as number }))
+      .sort((a, b) => a.position - b.position);
+    limitingEdges.splice(0, limitingEdges.length, ...sorted.map((entry) => entry.edge));
   }
   const openEquations: NoSolutionDiagnosis["openEquations"] = [];
   const residual = direct.evaluation.residual;
