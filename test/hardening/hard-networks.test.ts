@@ -161,7 +161,7 @@ describe("defects, reduced to small networks", () => {
   });
 
   // Defect G: the path of an unknown field is `${path}/${name}` without RFC 6901 escaping
-  // (schemaIssue in src/input/read-document.ts), so a field named "a/b" is reported at
+  // (schemaIssue in src/input/validate-schema.ts), so a field named "a/b" is reported at
   // /edges/0/a/b, a place that does not exist.
   it("an unknown field named a/b is reported at /edges/0/a~1b (RFC 6901 escaping; defect G, fixed)", () => {
     const document = fixture("dead-end-stub.json") as { edges: Record<string, unknown>[] };
