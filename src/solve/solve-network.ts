@@ -24,7 +24,10 @@ import { type NewtonOutcome, newtonSolve, ROUND_OFF_CEILING } from "./newton.js"
 export interface SolveOptions {
   /**
    * Stop after this many milliseconds of wall time, returning the best iterate marked not
-   * converged. Overrides `settings.timeLimit` of the document. @defaultValue no limit
+   * converged. Overrides `settings.timeLimit` of the document. The time counts from when the
+   * checked document is handed to the solver: building the model, the first guess, Newton and
+   * the rescue; not reading and checking the document, nor assembling the results.
+   * @defaultValue no limit
    */
   timeLimitMs?: number;
   /**
@@ -101,18 +104,20 @@ export interface SolvedState {
 
 /** Solve a checked document and keep the solver's state (internal API). */
 export function solveWithState(checked: CheckedDocument, options: SolveOptions = {}): SolvedState {
-  const model = modelOf(checked);
-  const system = createNetworkSystem(model);
   const settings = checked.settings;
   const limitMs =
     options.timeLimitMs ??
     (settings.timeLimit !== undefined ? 1000 * settings.timeLimit : undefined);
   const now = limitMs !== undefined ? (options.now ?? (() => performance.now())) : undefined;
+  // The budget starts before the model is built: building, the sparse structure and the first
+  // guess count against it (reading the document does not: its time limit is not known before).
   const newtonOptions = {
     tolerance: settings.tolerance,
     maxIterations: settings.maxIterations,
     ...(limitMs !== undefined && now !== undefined ? { deadline: now() + limitMs, now } : {}),
   };
+  const model = modelOf(checked);
+  const system = createNetworkSystem(model);
 
   const start = options.initialResult
     ? (stateFromResult(system, options.initialResult) ?? initialGuess(system))

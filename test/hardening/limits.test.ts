@@ -117,9 +117,10 @@ describe("the time limit", () => {
     expect(clock.readings).toBeLessThanOrEqual(7);
   });
 
-  // The budget covers the Newton iterations and the rescue, not reading the document, building
-  // the model and its sparse structure, the first guess or the results: on this network a
-  // 10 ms budget returns after about 1.6 s on the 2-core test machine, 0 iterations done.
+  // The budget covers building the model and its sparse structure, the first guess, the Newton
+  // iterations and the rescue, not reading the document or assembling the results: on this
+  // network a 10 ms budget returns after about 1.6 s on the 2-core test machine (mostly reading
+  // and building), 0 iterations done.
   it("ends a large network's solve on a tiny real budget (5 000 edges, 10 ms; bound 20 s against a hang, not a benchmark)", () => {
     const large = generateNetwork({ edges: 5000, seed: 3 });
     const started = performance.now();
