@@ -170,6 +170,10 @@ function fannoSlope(mach: number, gamma: number): number {
  * @param needCapacity - compute the capacity even when the pipe is clearly not choked (results
  *   need it; Newton iterations do not, and skip that solve for speed). When false and the pipe
  *   is not near choking, `out.capacity` is NaN and `out.capacityKnown` false.
+ * @param pressureDrop - p0 - pd [Pa] when the caller knows it more exactly than the difference of
+ *   the two rounded pressures (the network solver holds junction pressures as small offsets from
+ *   a reference, so a drop of a few units in the last place of p0 keeps its digits); used by the
+ *   creeping-flow law, the only one whose flow follows from such a drop.
  */
 export function evaluatePipeFlow(
   pipe: PipeGeometry,
@@ -179,6 +183,7 @@ export function evaluatePipeFlow(
   downstreamPressure: number,
   out: PipeFlowEvaluation,
   needCapacity = true,
+  pressureDrop = upstreamPressure - downstreamPressure,
 ): PipeFlowEvaluation {
   if (pipe.model === "isothermal") {
     evaluateIsothermal(
@@ -189,6 +194,7 @@ export function evaluatePipeFlow(
       downstreamPressure,
       out,
       needCapacity,
+      pressureDrop,
     );
   } else {
     evaluateAdiabatic(
@@ -199,6 +205,7 @@ export function evaluatePipeFlow(
       downstreamPressure,
       out,
       needCapacity,
+      pressureDrop,
     );
   }
   return out;
@@ -230,6 +237,7 @@ function evaluateAdiabatic(
   pd: number,
   out: PipeFlowEvaluation,
   needCapacity: boolean,
+  drop: number,
 ): void {
   const gamma = gas.heatCapacityRatio;
   const r = gas.specificGasConstant;
@@ -267,7 +275,7 @@ function evaluateAdiabatic(
   };
   // Known choked last time, or no flow: the capacity decides, solve it first.
   if (needCapacity || out.choked || pd >= p0) solveCapacity();
-  if (setCreepingFlow(pipe, gas, p0, t0, pd, mu, muSlope, area, p0, out)) return;
+  if (setCreepingFlow(pipe, gas, p0, t0, pd, drop, mu, muSlope, area, p0, out)) return;
 
   // Subsonic exit: g(M1) = ln(p_exit/p0) - ln(pd/p0) = 0 on (0, M1c). Without the capacity the
   // bracket is (0, 1) and the pipe's capacity shows up as a root that drifts to the sonic exit.
@@ -518,13 +526,23 @@ const CREEPING_PRESSURE_RATIO = 1e-10;
 const CREEPING_REYNOLDS = 10;
 
 /**
+ * Whether {@link evaluatePipeFlow} took a pipe's flow from the creeping-flow law, given its
+ * pressure drop [Pa], upstream pressure [Pa] and the Reynolds number it returned: the one law
+ * that uses the drop as given rather than the two pressures.
+ */
+export function isCreepingFlow(drop: number, upstreamPressure: number, reynolds: number): boolean {
+  return drop <= CREEPING_PRESSURE_RATIO * upstreamPressure && reynolds <= CREEPING_REYNOLDS;
+}
+
+/**
  * Creeping flow: for a vanishing pressure drop the flow is laminar and linear in it, by the
  * Hagen-Poiseuille law m = rho D^2 A (p0 - pd) / (32 mu L) (the minor losses and the kinetic
  * energy are of second order in the flow and drop out). Used below a relative drop of 1e-10,
  * where the compressible relations would have to resolve ln(pd/p0) within a few units of
  * rounding and their derivatives lose all accuracy, and only while Re stays below 10. Fills
- * `out` and returns true when it applies. `inletPressure` is the pipe's inlet static pressure
- * (p0 for both models at such flows).
+ * `out` and returns true when it applies. `drop` is p0 - pd, given apart from pd so that it can
+ * be more exact than their rounded difference. `inletPressure` is the pipe's inlet static
+ * pressure (p0 for both models at such flows).
  */
 function setCreepingFlow(
   pipe: PipeGeometry,
@@ -532,13 +550,13 @@ function setCreepingFlow(
   p0: number,
   t0: number,
   pd: number,
+  drop: number,
   mu: number,
   muSlope: number,
   area: number,
   inletPressure: number,
   out: PipeFlowEvaluation,
 ): boolean {
-  const drop = p0 - pd;
   if (!(drop <= CREEPING_PRESSURE_RATIO * p0)) return false;
   const density = p0 / (gas.specificGasConstant * t0);
   const conductance = (density * pipe.diameter * pipe.diameter * area) / (32 * mu * pipe.length);
@@ -577,6 +595,7 @@ function evaluateIsothermal(
   pd: number,
   out: PipeFlowEvaluation,
   needCapacity: boolean,
+  drop: number,
 ): void {
   const gamma = gas.heatCapacityRatio;
   const r = gas.specificGasConstant;
@@ -614,7 +633,7 @@ function evaluateIsothermal(
   // Known choked last time, or no flow or no back-pressure: the capacity decides, solve it first.
   if (needCapacity || out.choked || pd >= p1 || !(pd > 0)) solveCapacity();
 
-  if (setCreepingFlow(pipe, gas, p1, t, pd, mu, muSlope, area, p1, out)) return;
+  if (setCreepingFlow(pipe, gas, p1, t, pd, drop, mu, muSlope, area, p1, out)) return;
 
   // Subsonic: Newton on G in (0, G*); without the capacity, in (0, infinity) and the pipe's
   // capacity shows as an exit Mach number at or above 1/sqrt(gamma).

@@ -16,7 +16,9 @@ import {
   evaluateSystem,
   type NetworkSystem,
   nodePressure,
+  nodePressureDifference,
   nodeTemperature,
+  pressureUnknown,
 } from "./network-system.js";
 import { type NewtonOutcome, newtonSolve, ROUND_OFF_CEILING } from "./newton.js";
 
@@ -227,7 +229,7 @@ function stateFromResult(
     const node = nodes[system.model.junctionNodes[j] as number];
     const old = node ? byId.get(node.id) : undefined;
     if (!old || !(old.pressure > 0) || !(old.temperature > 0)) return undefined;
-    x[2 * j] = old.pressure / system.pressureScale;
+    x[2 * j] = pressureUnknown(system, old.pressure);
     x[2 * j + 1] = old.temperature / system.temperatureScale;
   }
   return x;
@@ -316,7 +318,8 @@ function diagnose(
       const to = system.model.edgeTo[e] as number;
       const pFrom = nodePressure(at, rescue.outcome.x, from);
       const pTo = nodePressure(at, rescue.outcome.x, to);
-      const forward = pFrom >= pTo;
+      const difference = nodePressureDifference(at, rescue.outcome.x, from, to);
+      const forward = difference >= 0;
       const edgeState = evaluateEdgeFlow(
         system.elements[e] as EdgeElement,
         system.gas,
@@ -326,6 +329,7 @@ function diagnose(
         forward,
         scratch,
         true,
+        Math.abs(difference),
       );
       const flow = Math.abs(evaluation.massFlow[e] as number);
       const capacity = edgeState.capacity;

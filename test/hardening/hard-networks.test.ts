@@ -69,8 +69,9 @@ const DEFECTS: {
   {
     file: "tiny-flow-through-header.json",
     expected: "converged",
-    open: true,
-    defect: "B2: flows below the resolution of the pressures still stall (what remains of B)",
+    open: false,
+    defect:
+      "B2 (fixed: junction pressures held as offsets): flows below the resolution of the pressures stalled (what remains of B)",
   },
   {
     file: "tiny-flow-large-bore.json",
