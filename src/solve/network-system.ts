@@ -330,8 +330,7 @@ export function evaluateSystem(
     arrivalSlopes[4 * e + downP] = result.dArrivalTemperaturedDownstreamPressure;
     const downstreamNode = forward ? to : from;
     nodeInflow[downstreamNode] = (nodeInflow[downstreamNode] as number) + result.massFlow;
-    const exactDrop =
-      element.kind === "pipe" && isCreepingFlow(Math.abs(difference), pUp, result.reynolds);
+    const exactDrop = element.kind === "pipe" && isCreepingFlow(Math.abs(difference), pUp);
     const noise =
       FLOW_ROUNDING *
       (Math.abs(result.dMassFlowdUpstreamPressure) *
