@@ -21,7 +21,7 @@ import { factorBlockMatrix, solveFactored } from "./sparse-block-lu.js";
 /** Number of linear-theory rounds. */
 const ROUNDS = 8;
 
-/** Scaled unknowns of a first guess, 2 per junction [p / pScale, T / TScale]. */
+/** Scaled unknowns of a first guess, 2 per junction [p / pScale - 1, T / TScale]. */
 export function initialGuess(system: NetworkSystem): Float64Array {
   const { model, edgeCount, junctionCount, structure } = system;
   const gas = system.gas;

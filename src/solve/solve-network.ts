@@ -100,7 +100,7 @@ export interface SolvedState {
   result: NetworkResult;
   /** The network's system (structure, elements, warm starts). */
   system: NetworkSystem;
-  /** Scaled unknowns of the final state (2 per junction: p / pScale, T / TScale). */
+  /** Scaled unknowns of the final state (2 per junction: p / pScale - 1, T / TScale). */
   x: Float64Array;
 }
 

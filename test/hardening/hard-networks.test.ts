@@ -74,6 +74,20 @@ const DEFECTS: {
       "B2 (fixed: junction pressures held as offsets): flows below the resolution of the pressures stalled (what remains of B)",
   },
   {
+    file: "offsets-far-below-supply-736.json",
+    expected: "converged",
+    open: true,
+    defect:
+      "B3: flows on drops of 1e-12 of the pressure at junctions far below the highest reservoir pressure (offsets of -0.6) still stall",
+  },
+  {
+    file: "offsets-far-below-supply-871.json",
+    expected: "converged",
+    open: true,
+    defect:
+      "B3: flows on drops of 1e-12 of the pressure beside a second reservoir at 0.6 of the highest still stall",
+  },
+  {
     file: "tiny-flow-large-bore.json",
     expected: "solved-or-honest",
     open: false,
