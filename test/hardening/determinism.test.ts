@@ -201,7 +201,15 @@ describe("another order of nodes and edges in the file", () => {
 
   it("gives the very same whole result in any order, up to the order of lists, converged or not", () => {
     const statuses = new Set<string>();
-    for (const { item, result } of baseline) {
+    // The sample as it is, and a few networks cut short after two iterations (not converged).
+    const cutShort = SAMPLE.slice(0, 6).map((item) => {
+      const document = {
+        ...item.document,
+        settings: { ...item.document.settings, maxIterations: 2 },
+      };
+      return { item: { ...item, document }, result: solveNetwork(document) };
+    });
+    for (const { item, result } of [...baseline, ...cutShort]) {
       const other = solveNetwork(reordered(item.document, item.seed + 2000));
       statuses.add(result.status);
       expect(resultJson(sortedLists(other)), `seed ${item.seed}`).toBe(
