@@ -3,8 +3,7 @@
  * SI, apply defaults, and check the rules the schema cannot express. Every problem is collected
  * (not only the first) and reported with its JSON Pointer.
  */
-import { Ajv2020, type ErrorObject } from "ajv/dist/2020.js";
-import { type ParseError, parse as parseTolerant, printParseErrorCode } from "jsonc-parser";
+import { printParseErrorCode } from "jsonc-parser";
 import type {
   CheckedDocument,
   CheckedEdge,
@@ -17,10 +16,12 @@ import type {
 } from "./document-types.js";
 import { INPUT_RANGES, inRange } from "./input-ranges.js";
 import { InputError, type InputIssue, jsonPointer, pointerSegment, sortIssues } from "./issues.js";
+import { firstJsonSyntaxError } from "./json-syntax-error.js";
 import { networkSchema } from "./network-schema.js";
 import { parseQuantity, type QuantityKind } from "./quantity.js";
 import { readComponentEdge, readPipeExtras } from "./read-components.js";
 import { gasModelSupportIssues, readGas } from "./read-gas.js";
+import { compileValidator } from "./validate-schema.js";
 
 export { INPUT_RANGES, type InputRange } from "./input-ranges.js";
 
@@ -88,10 +89,8 @@ export function parseJsonText(
   try {
     return { ok: true, value: JSON.parse(body) };
   } catch {
-    // JSON.parse does not say where; a tolerant parser finds the first error's offset.
-    const errors: ParseError[] = [];
-    parseTolerant(body, errors, { allowTrailingComma: false, disallowComments: true });
-    const first = errors[0];
+    // JSON.parse does not say where; a walk over the tokens (stack-safe) finds the first error.
+    const first = firstJsonSyntaxError(body);
     const offset = first?.offset ?? 0;
     const { line, column } = lineAndColumn(body, offset);
     const what = first ? describeParseError(printParseErrorCode(first.error)) : "invalid JSON";
@@ -127,151 +126,11 @@ function lineAndColumn(text: string, offset: number): { line: number; column: nu
   return { line, column: offset - lineStart + 1 };
 }
 
-let compiledValidator: ReturnType<Ajv2020["compile"]> | undefined;
-
-/** The schema validator, compiled once on first use (allowed shared state: it never changes). */
-function schemaValidator(): ReturnType<Ajv2020["compile"]> {
-  if (compiledValidator === undefined) {
-    const ajv = new Ajv2020({
-      allErrors: true,
-      verbose: true,
-      strict: true,
-      strictRequired: false,
-      allowUnionTypes: true,
-    });
-    compiledValidator = ajv.compile(networkSchema);
-  }
-  return compiledValidator;
-}
+const validateNetwork = compileValidator(networkSchema);
 
 /** Check a parsed value against schemas/network.schema.json; [] when it conforms. */
 export function validateAgainstSchema(value: unknown): InputIssue[] {
-  const validate = schemaValidator();
-  if (validate(value)) return [];
-  // Copy at once: ajv keeps only the last call's errors on the validator.
-  const errors = [...(validate.errors ?? [])];
-  const issues = errors
-    .map((error) => schemaIssue(error))
-    .filter((issue): issue is InputIssue => issue !== undefined);
-  return dedupe(sortIssues(issues));
-}
-
-function dedupe(issues: InputIssue[]): InputIssue[] {
-  const seen = new Set<string>();
-  return issues.filter((issue) => {
-    const key = `${issue.path}\u0000${issue.message}`;
-    if (seen.has(key)) return false;
-    seen.add(key);
-    return true;
-  });
-}
-
-/**
- * Reword one ajv error as a user-facing line, keeping ajv's path; undefined for the summary
- * errors (`if`, `anyOf`, `allOf`) whose branches report the real problem. Shared by every
- * document machnet validates (networks, studies).
- */
-export function schemaIssue(error: ErrorObject): InputIssue | undefined {
-  const path = error.instancePath;
-  const params = error.params as Record<string, unknown>;
-  switch (error.keyword) {
-    case "required":
-      return {
-        code: "schema",
-        path,
-        message: `missing required field "${String(params.missingProperty)}"`,
-      };
-    case "additionalProperties": {
-      const allowed = allowedFields(error.parentSchema);
-      return {
-        code: "schema",
-        path: `${path}/${pointerSegment(String(params.additionalProperty))}`,
-        message: `unknown field "${String(params.additionalProperty)}"${allowed ? `; allowed fields here: ${allowed}` : ""}`,
-      };
-    }
-    case "type": {
-      const expected = String(params.type);
-      const wanted =
-        expected === "number,string"
-          ? 'a number in SI units or a quantity string such as "80 mm"'
-          : `of type ${expected.replace(",", " or ")}`;
-      return { code: "schema", path, message: `must be ${wanted}` };
-    }
-    case "enum":
-      return {
-        code: "schema",
-        path,
-        message: `must be one of ${(params.allowedValues as unknown[]).map((v) => JSON.stringify(v)).join(", ")}`,
-      };
-    case "minItems":
-      return {
-        code: "schema",
-        path,
-        message: `must have at least ${String(params.limit)} item(s)`,
-      };
-    case "maxItems":
-      return { code: "schema", path, message: `must have at most ${String(params.limit)} items` };
-    case "minLength":
-      return { code: "schema", path, message: "must not be empty" };
-    case "maxLength":
-      return {
-        code: "schema",
-        path,
-        message: `must be at most ${String(params.limit)} characters long`,
-      };
-    case "minimum":
-    case "maximum":
-    case "exclusiveMinimum":
-    case "exclusiveMaximum":
-      return {
-        code: "schema",
-        path,
-        message: `must be ${String(params.comparison)} ${String(params.limit)}`,
-      };
-    case "not":
-      return notIssue(path, error.schema);
-    case "if":
-    case "anyOf":
-    case "allOf":
-      // The failing branch's own errors say what is wrong; these summaries add nothing.
-      return undefined;
-    case "integer":
-      return { code: "schema", path, message: "must be a whole number" };
-    default:
-      return { code: "schema", path, message: error.message ?? "is not valid here" };
-  }
-}
-
-function allowedFields(parentSchema: unknown): string {
-  const properties = (parentSchema as { properties?: Record<string, unknown> } | undefined)
-    ?.properties;
-  return properties ? Object.keys(properties).join(", ") : "";
-}
-
-function notIssue(path: string, schema: unknown): InputIssue {
-  const required = (schema as { required?: string[] } | undefined)?.required ?? [];
-  if (required.includes("roughness") && required.includes("frictionFactor")) {
-    return {
-      code: "schema",
-      path,
-      message: 'give either "roughness" or "frictionFactor", not both',
-    };
-  }
-  if (required.includes("demand")) {
-    return {
-      code: "schema",
-      path: `${path}/demand`,
-      message: "a reservoir takes no demand: its flow follows from the network",
-    };
-  }
-  if (required.includes("pressure")) {
-    return {
-      code: "schema",
-      path: `${path}/pressure`,
-      message: "a junction's pressure is solved for; only a reservoir has a fixed pressure",
-    };
-  }
-  return { code: "schema", path, message: "is not allowed here" };
+  return sortIssues(validateNetwork(value));
 }
 
 /**

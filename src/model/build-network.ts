@@ -6,9 +6,16 @@ import { Graph } from "@dagrejs/graphlib";
 import type { CheckedDocument } from "../input/document-types.js";
 import { type InputIssue, jsonPointer, sortIssues } from "../input/issues.js";
 
-/** The network as the solver sees it. Node and edge order is the document's. */
+/**
+ * The network as the solver sees it. Nodes and edges are in canonical order (sorted by id), not
+ * the file's, so that every index, sum and tie-break of the solver, and so every number it
+ * returns, is the same whatever the order of the lists in the file; `filePosition` leads back.
+ */
 export interface NetworkModel {
+  /** The checked document with its nodes and edges in canonical order. */
   document: CheckedDocument;
+  /** Per node and per edge of the model: its position in the file's list. */
+  filePosition: { nodes: Int32Array; edges: Int32Array };
   /** Node id -> position in document.nodes. */
   nodeIndex: ReadonlyMap<string, number>;
   /** Per edge: index of its `from` node and its `to` node. */
@@ -70,8 +77,6 @@ export function buildNetwork(document: CheckedDocument): BuildResult {
   const graph = new Graph({ directed: false, multigraph: true });
   for (const id of nodeIndex.keys()) graph.setNode(id);
   const definedList = listIds([...nodeIndex.keys()]);
-  const edgeFrom = new Int32Array(document.edges.length);
-  const edgeTo = new Int32Array(document.edges.length);
   document.edges.forEach((edge, index) => {
     let ends = true;
     for (const end of ["from", "to"] as const) {
@@ -95,8 +100,6 @@ export function buildNetwork(document: CheckedDocument): BuildResult {
       });
       return;
     }
-    edgeFrom[index] = nodeIndex.get(edge.from) as number;
-    edgeTo[index] = nodeIndex.get(edge.to) as number;
     graph.setEdge(edge.from, edge.to, index, String(index));
   });
 
@@ -132,7 +135,43 @@ export function buildNetwork(document: CheckedDocument): BuildResult {
   }
 
   if (issues.length > 0) return { ok: false, issues: sortIssues(issues) };
+  return { ok: true, model: indexedModel(canonicalOrder(document)) };
+}
 
+/**
+ * The document with its nodes and edges sorted by id (UTF-16 code units, no locale), and the
+ * file position of each. Ids are unique, so the order is total.
+ */
+function canonicalOrder(document: CheckedDocument): {
+  document: CheckedDocument;
+  filePosition: NetworkModel["filePosition"];
+} {
+  const byId = (list: readonly { id: string }[]): Int32Array =>
+    Int32Array.from(list.keys()).sort((a, b) => {
+      const idA = (list[a] as { id: string }).id;
+      const idB = (list[b] as { id: string }).id;
+      return idA < idB ? -1 : idA > idB ? 1 : 0;
+    });
+  const nodes = byId(document.nodes);
+  const edges = byId(document.edges);
+  return {
+    document: {
+      ...document,
+      nodes: Array.from(nodes, (i) => document.nodes[i] as CheckedDocument["nodes"][number]),
+      edges: Array.from(edges, (i) => document.edges[i] as CheckedDocument["edges"][number]),
+    },
+    filePosition: { nodes, edges },
+  };
+}
+
+/** The index arrays of a topologically valid document, in the order of its lists. */
+function indexedModel({ document, filePosition }: ReturnType<typeof canonicalOrder>): NetworkModel {
+  const nodeIndex = new Map<string, number>();
+  document.nodes.forEach((node, index) => {
+    nodeIndex.set(node.id, index);
+  });
+  const edgeFrom = Int32Array.from(document.edges, (edge) => nodeIndex.get(edge.from) as number);
+  const edgeTo = Int32Array.from(document.edges, (edge) => nodeIndex.get(edge.to) as number);
   const nodeCount = document.nodes.length;
   const isReservoir = new Uint8Array(nodeCount);
   const unknownIndex = new Int32Array(nodeCount).fill(-1);
@@ -165,18 +204,16 @@ export function buildNetwork(document: CheckedDocument): BuildResult {
   }
 
   return {
-    ok: true,
-    model: {
-      document,
-      nodeIndex,
-      edgeFrom,
-      edgeTo,
-      isReservoir,
-      unknownIndex,
-      junctionNodes: Int32Array.from(junctions),
-      incidentStart,
-      incidentEdges,
-    },
+    document,
+    filePosition,
+    nodeIndex,
+    edgeFrom,
+    edgeTo,
+    isReservoir,
+    unknownIndex,
+    junctionNodes: Int32Array.from(junctions),
+    incidentStart,
+    incidentEdges,
   };
 }
 

@@ -37,6 +37,8 @@ export type EdgeElement = PipeElement | ComponentElement;
  * @param needCapacity - also compute the capacity (the largest flow) when not near choking; for
  *   a component, also the Mach numbers in its connecting pipes (results need both, Newton
  *   iterations neither)
+ * @param pressureDrop - p0 - pd [Pa], if known more exactly than the difference of the two
+ *   rounded pressures (see {@link evaluatePipeFlow}); components use the pressures
  */
 export function evaluateEdgeFlow(
   element: EdgeElement,
@@ -47,6 +49,7 @@ export function evaluateEdgeFlow(
   forward: boolean,
   out: PipeFlowEvaluation,
   needCapacity: boolean,
+  pressureDrop = upstreamPressure - downstreamPressure,
 ): PipeFlowEvaluation {
   if (element.kind !== "pipe") {
     return evaluateComponentFlow(
@@ -68,6 +71,7 @@ export function evaluateEdgeFlow(
     downstreamPressure,
     out,
     needCapacity,
+    pressureDrop,
   );
 }
 

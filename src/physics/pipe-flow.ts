@@ -170,6 +170,10 @@ function fannoSlope(mach: number, gamma: number): number {
  * @param needCapacity - compute the capacity even when the pipe is clearly not choked (results
  *   need it; Newton iterations do not, and skip that solve for speed). When false and the pipe
  *   is not near choking, `out.capacity` is NaN and `out.capacityKnown` false.
+ * @param pressureDrop - p0 - pd [Pa] when the caller knows it more exactly than the difference of
+ *   the two rounded pressures (the network solver holds junction pressures as small offsets from
+ *   a reference, so a drop of a few units in the last place of p0 keeps its digits); used by the
+ *   creeping-flow law, the only one whose flow follows from such a drop.
  */
 export function evaluatePipeFlow(
   pipe: PipeGeometry,
@@ -179,6 +183,7 @@ export function evaluatePipeFlow(
   downstreamPressure: number,
   out: PipeFlowEvaluation,
   needCapacity = true,
+  pressureDrop = upstreamPressure - downstreamPressure,
 ): PipeFlowEvaluation {
   if (pipe.model === "isothermal") {
     evaluateIsothermal(
@@ -189,6 +194,7 @@ export function evaluatePipeFlow(
       downstreamPressure,
       out,
       needCapacity,
+      pressureDrop,
     );
   } else {
     evaluateAdiabatic(
@@ -199,6 +205,7 @@ export function evaluatePipeFlow(
       downstreamPressure,
       out,
       needCapacity,
+      pressureDrop,
     );
   }
   return out;
@@ -230,6 +237,7 @@ function evaluateAdiabatic(
   pd: number,
   out: PipeFlowEvaluation,
   needCapacity: boolean,
+  drop: number,
 ): void {
   const gamma = gas.heatCapacityRatio;
   const r = gas.specificGasConstant;
@@ -267,7 +275,7 @@ function evaluateAdiabatic(
   };
   // Known choked last time, or no flow: the capacity decides, solve it first.
   if (needCapacity || out.choked || pd >= p0) solveCapacity();
-  if (setCreepingFlow(pipe, gas, p0, t0, pd, mu, muSlope, area, p0, out)) return;
+  if (setCreepingFlow(pipe, gas, p0, t0, pd, drop, mu, muSlope, area, p0, out)) return;
 
   // Subsonic exit: g(M1) = ln(p_exit/p0) - ln(pd/p0) = 0 on (0, M1c). Without the capacity the
   // bracket is (0, 1) and the pipe's capacity shows up as a root that drifts to the sonic exit.
@@ -512,19 +520,32 @@ function adiabaticCapacityMach(
   return mach;
 }
 
-/** Relative pressure drop below which a pipe's flow is taken as creeping laminar flow. */
+/** Relative pressure drop below which a pipe's flow is taken from the small-drop law. */
 const CREEPING_PRESSURE_RATIO = 1e-10;
-/** Largest Reynolds number at which the creeping-flow law is used (far below 2300). */
-const CREEPING_REYNOLDS = 10;
 
 /**
- * Creeping flow: for a vanishing pressure drop the flow is laminar and linear in it, by the
- * Hagen-Poiseuille law m = rho D^2 A (p0 - pd) / (32 mu L) (the minor losses and the kinetic
- * energy are of second order in the flow and drop out). Used below a relative drop of 1e-10,
- * where the compressible relations would have to resolve ln(pd/p0) within a few units of
- * rounding and their derivatives lose all accuracy, and only while Re stays below 10. Fills
- * `out` and returns true when it applies. `inletPressure` is the pipe's inlet static pressure
- * (p0 for both models at such flows).
+ * Whether {@link evaluatePipeFlow} took a pipe's flow from the small-drop law, given its pressure
+ * drop [Pa] and upstream pressure [Pa]: the one law that uses the drop as given rather than the
+ * two pressures.
+ */
+export function isCreepingFlow(drop: number, upstreamPressure: number): boolean {
+  return drop <= CREEPING_PRESSURE_RATIO * upstreamPressure;
+}
+
+/**
+ * Small-drop law: for a pressure drop below 1e-10 of the pressure the gas is incompressible to
+ * that accuracy, and the plenum-to-plenum relation of either model tends to
+ *
+ *   p0 - pd = (1 + fD(Re) L/D + K) G^2 / (2 rho),   rho = p0 / (R T0),   Re = G D / mu,
+ *
+ * the dynamic head of the entry (the 1) plus friction and minor losses; laminar, fD = 64/Re, it
+ * is the Hagen-Poiseuille law m = rho D^2 A (p0 - pd) / (32 mu L) plus the second-order terms.
+ * Solved for G by a safeguarded Newton iteration from the laminar root (the lowest friction, so
+ * an upper bound). Used where the compressible relations would have to resolve ln(pd/p0) within
+ * a few units of rounding and their derivatives lose all accuracy. `drop` is p0 - pd, given
+ * apart from pd so that it can be more exact than their rounded difference (the network solver
+ * takes it from its pressure offsets). `inletPressure` is the pipe's inlet static pressure.
+ * Fills `out` and returns true when it applies.
  */
 function setCreepingFlow(
   pipe: PipeGeometry,
@@ -532,32 +553,63 @@ function setCreepingFlow(
   p0: number,
   t0: number,
   pd: number,
+  drop: number,
   mu: number,
   muSlope: number,
   area: number,
   inletPressure: number,
   out: PipeFlowEvaluation,
 ): boolean {
-  const drop = p0 - pd;
   if (!(drop <= CREEPING_PRESSURE_RATIO * p0)) return false;
   const density = p0 / (gas.specificGasConstant * t0);
-  const conductance = (density * pipe.diameter * pipe.diameter * area) / (32 * mu * pipe.length);
-  const massFlow = conductance * Math.max(drop, 0);
-  const reynolds = (massFlow * pipe.diameter) / (area * mu);
-  if (reynolds > CREEPING_REYNOLDS) return false;
-  const velocity = massFlow / (area * density);
+  const reynoldsPerFlux = pipe.diameter / mu;
+  // Laminar: drop = a G + b G^2.
+  const a = (32 * mu * pipe.length) / (density * pipe.diameter * pipe.diameter);
+  const b = (1 + pipe.minorLoss) / (2 * density);
+  const positive = Math.max(drop, 0);
+  let flux = (2 * positive) / (a + Math.sqrt(a * a + 4 * b * positive));
+  const friction = out.friction;
+  // Slope dF/dG of F(G) = (1 + X(Re)) G^2 / (2 rho), and dF/dRe at fixed G.
+  let slope = a;
+  let reynoldsSlope = 0;
+  if (flux > 0) {
+    let high = flux;
+    for (let iteration = 0; iteration < 60; iteration++) {
+      const reynolds = flux * reynoldsPerFlux;
+      frictionParameter(pipe, reynolds, friction);
+      const value = ((1 + friction.value) * flux * flux) / (2 * density) - positive;
+      reynoldsSlope = (friction.slope * flux * flux) / (2 * density);
+      slope = ((1 + friction.value) * flux) / density + reynoldsSlope * reynoldsPerFlux;
+      if (value > 0) high = flux;
+      let next = flux - value / slope;
+      if (!(next > 0 && next <= high)) next = 0.5 * (flux + (value > 0 ? 0 : high));
+      const change = Math.abs(next - flux);
+      flux = next;
+      if (change <= 1e-15 * flux) break;
+    }
+    const reynolds = flux * reynoldsPerFlux;
+    frictionParameter(pipe, reynolds, friction);
+    reynoldsSlope = (friction.slope * flux * flux) / (2 * density);
+    slope = ((1 + friction.value) * flux) / density + reynoldsSlope * reynoldsPerFlux;
+  }
+  const massFlow = flux * area;
+  const reynolds = flux * reynoldsPerFlux;
+  const velocity = flux / density;
   const mach = velocity / Math.sqrt(gas.heatCapacityRatio * gas.specificGasConstant * t0);
+  // Implicit derivatives of F(G; p0, T0) = p0 - pd: F grows as 1/rho (with p0 and T0) and
+  // through Re = G D / mu(T0).
   out.choked = false;
   out.massFlow = massFlow;
-  out.dMassFlowdUpstreamPressure = conductance * (1 + drop / p0);
-  out.dMassFlowdUpstreamTemperature = -massFlow * (1 / t0 + muSlope);
-  out.dMassFlowdDownstreamPressure = -conductance;
+  out.dMassFlowdUpstreamPressure = (area * (1 + positive / p0)) / slope;
+  out.dMassFlowdUpstreamTemperature =
+    flux > 0 ? (-area * (positive / t0 - reynoldsSlope * reynolds * muSlope)) / slope : 0;
+  out.dMassFlowdDownstreamPressure = -area / slope;
   out.inletMach = mach;
   out.outletMach = mach;
   out.inletPressure = inletPressure;
   out.outletPressure = pd;
   out.reynolds = reynolds;
-  out.frictionFactor = reynolds > 0 ? 64 / reynolds : 0;
+  out.frictionFactor = reynolds > 0 ? (flux > 0 ? friction.factor : 64 / reynolds) : 0;
   out.arrivalTemperature = t0;
   out.dArrivalTemperaturedUpstreamPressure = 0;
   out.dArrivalTemperaturedUpstreamTemperature = 1;
@@ -577,6 +629,7 @@ function evaluateIsothermal(
   pd: number,
   out: PipeFlowEvaluation,
   needCapacity: boolean,
+  drop: number,
 ): void {
   const gamma = gas.heatCapacityRatio;
   const r = gas.specificGasConstant;
@@ -614,7 +667,7 @@ function evaluateIsothermal(
   // Known choked last time, or no flow or no back-pressure: the capacity decides, solve it first.
   if (needCapacity || out.choked || pd >= p1 || !(pd > 0)) solveCapacity();
 
-  if (setCreepingFlow(pipe, gas, p1, t, pd, mu, muSlope, area, p1, out)) return;
+  if (setCreepingFlow(pipe, gas, p1, t, pd, drop, mu, muSlope, area, p1, out)) return;
 
   // Subsonic: Newton on G in (0, G*); without the capacity, in (0, infinity) and the pipe's
   // capacity shows as an exit Mach number at or above 1/sqrt(gamma).

@@ -15,13 +15,13 @@ import {
 } from "../physics/edge-flow.js";
 import { darcyFrictionFactor } from "../physics/friction.js";
 import type { NetworkSystem } from "./network-system.js";
-import { NO_FLOW_WEIGHT } from "./network-system.js";
+import { NO_FLOW_WEIGHT, pressureUnknown } from "./network-system.js";
 import { factorBlockMatrix, solveFactored } from "./sparse-block-lu.js";
 
 /** Number of linear-theory rounds. */
 const ROUNDS = 8;
 
-/** Scaled unknowns of a first guess, 2 per junction [p / pScale, T / TScale]. */
+/** Scaled unknowns of a first guess, 2 per junction [p / pScale - 1, T / TScale]. */
 export function initialGuess(system: NetworkSystem): Float64Array {
   const { model, edgeCount, junctionCount, structure } = system;
   const gas = system.gas;
@@ -172,7 +172,7 @@ export function initialGuess(system: NetworkSystem): Float64Array {
   const x = new Float64Array(2 * junctionCount);
   for (let j = 0; j < junctionCount; j++) {
     const node = model.junctionNodes[j] as number;
-    x[2 * j] = Math.sqrt(squared[node] as number) / system.pressureScale;
+    x[2 * j] = pressureUnknown(system, Math.sqrt(squared[node] as number));
     const t = temperatures[2 * j + 1] as number;
     x[2 * j + 1] = (Number.isFinite(t) && t > 0 ? t : supplyTemperature) / system.temperatureScale;
   }

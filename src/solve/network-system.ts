@@ -24,7 +24,7 @@
 import { gasViscosity } from "../gas/gas.js";
 import type { NetworkModel } from "../model/build-network.js";
 import { type EdgeElement, evaluateEdgeFlow } from "../physics/edge-flow.js";
-import { PipeFlowEvaluation, type PipeGas } from "../physics/pipe-flow.js";
+import { isCreepingFlow, PipeFlowEvaluation, type PipeGas } from "../physics/pipe-flow.js";
 import type { BlockLuStructure } from "./sparse-block-lu.js";
 import { analyzeBlockPattern } from "./sparse-block-lu.js";
 
@@ -45,10 +45,12 @@ export function noFlowWeight(throughput: number, inflow: number): number {
 export const CHOKED_SLOPE_FRACTION = 1e-6;
 
 /**
- * Rounding of a node pressure in units of the pressure (4 units of double rounding). A flow
+ * Rounding of a node pressure in units of its resolution (4 units of double rounding). A flow
  * follows from the difference of its two end pressures, so it carries a round-off of about its
- * pressure slopes times this times the pressures: where a pressure drop is 1e-9 of the pressure,
- * the flow is known to only about 1e-7 of itself, however well Newton has converged.
+ * pressure slopes times this times the resolution of the pressures: the pressure itself where
+ * the relation takes the rounded pressures (where a drop is 1e-9 of the pressure, the flow is
+ * known to only about 1e-7 of itself, however well Newton has converged), the offset from the
+ * pressure scale where it takes the drop from the offsets (creeping flow).
  */
 export const FLOW_ROUNDING = 4 * Number.EPSILON;
 
@@ -60,11 +62,17 @@ export interface NetworkSystem {
   /** Every edge as the solver sees it. */
   elements: EdgeElement[];
   gas: PipeGas;
-  /** Reference scales of the unknowns. */
+  /**
+   * Reference scales of the unknowns. A junction's pressure unknown is its offset from the
+   * pressure scale, p / pressureScale - 1 (see {@link pressureUnknown}); its temperature unknown
+   * is T / temperatureScale.
+   */
   pressureScale: number;
   temperatureScale: number;
   /** Fixed state of each node (NaN for junctions). */
   fixedPressure: Float64Array;
+  /** Per reservoir, its pressure as an offset like a junction's unknown (NaN for junctions). */
+  fixedPressureOffset: Float64Array;
   fixedTemperature: Float64Array;
   /** Demand per node [kg/s] (0 for reservoirs); injection temperature per node (NaN if none). */
   demand: Float64Array;
@@ -184,6 +192,7 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
     pressureScale,
     temperatureScale,
     fixedPressure,
+    fixedPressureOffset: fixedPressure.map((value) => value / pressureScale - 1),
     fixedTemperature,
     demand,
     injectionTemperature,
@@ -194,12 +203,58 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
   };
 }
 
+/**
+ * The scaled unknown of a junction pressure p [Pa]: its offset from the pressure scale,
+ * p / pressureScale - 1. Junctions near the highest supply pressure then have small unknowns,
+ * so their pressures, and above all the differences between them, keep digits that p itself
+ * cannot hold: a drop of 1e-6 Pa at 10 bar is ten thousand units in the last place of p, and
+ * the flow through a wide header that it drives would be known to only 1e-4 of itself
+ * (hardening defect B2). Held as offsets, the drop is known to about 1e-8 of itself.
+ */
+export function pressureUnknown(system: NetworkSystem, pressure: number): number {
+  return pressure / system.pressureScale - 1;
+}
+
 /** Node pressure [Pa] from the scaled unknowns (reservoirs: fixed). */
 export function nodePressure(system: NetworkSystem, x: Float64Array, node: number): number {
   const unknown = system.model.unknownIndex[node] as number;
   return unknown < 0
     ? (system.fixedPressure[node] as number)
-    : (x[2 * unknown] as number) * system.pressureScale;
+    : system.pressureScale + (x[2 * unknown] as number) * system.pressureScale;
+}
+
+/** A node's pressure offset (its scaled unknown, or a reservoir's fixed offset). */
+function pressureOffset(system: NetworkSystem, x: Float64Array, node: number): number {
+  const unknown = system.model.unknownIndex[node] as number;
+  return unknown < 0 ? (system.fixedPressureOffset[node] as number) : (x[2 * unknown] as number);
+}
+
+/**
+ * p(a) - p(b) [Pa] from the offsets, more exact than the difference of the two rounded
+ * pressures when they are close.
+ */
+export function nodePressureDifference(
+  system: NetworkSystem,
+  x: Float64Array,
+  a: number,
+  b: number,
+): number {
+  return (pressureOffset(system, x, a) - pressureOffset(system, x, b)) * system.pressureScale;
+}
+
+/**
+ * How finely a node's pressure is resolved [Pa], over a unit of rounding: the offset's own
+ * rounding, plus that of the pressure itself where a relation uses the rounded pressure.
+ */
+function pressureResolution(
+  system: NetworkSystem,
+  x: Float64Array,
+  node: number,
+  pressure: number,
+  exactDrop: boolean,
+): number {
+  const offset = Math.abs(pressureOffset(system, x, node)) * system.pressureScale;
+  return exactDrop ? offset : offset + pressure;
 }
 
 /** Node temperature [K] from the scaled unknowns (reservoirs: fixed). */
@@ -239,13 +294,15 @@ export function evaluateSystem(
     const to = model.edgeTo[e] as number;
     const pFrom = nodePressure(system, x, from);
     const pTo = nodePressure(system, x, to);
-    const forward = pFrom >= pTo;
+    const difference = nodePressureDifference(system, x, from, to);
+    const forward = difference >= 0;
     const upstream = forward ? from : to;
     const pUp = forward ? pFrom : pTo;
     const pDown = forward ? pTo : pFrom;
     const tUp = nodeTemperature(system, x, upstream);
+    const element = system.elements[e] as EdgeElement;
     const result = evaluateEdgeFlow(
-      system.elements[e] as EdgeElement,
+      element,
       system.gas,
       pUp,
       tUp,
@@ -253,6 +310,7 @@ export function evaluateSystem(
       forward,
       system.evaluations[e] as PipeFlowEvaluation,
       false,
+      Math.abs(difference),
     );
     const sign = forward ? 1 : -1;
     massFlow[e] = sign * result.massFlow;
@@ -272,10 +330,13 @@ export function evaluateSystem(
     arrivalSlopes[4 * e + downP] = result.dArrivalTemperaturedDownstreamPressure;
     const downstreamNode = forward ? to : from;
     nodeInflow[downstreamNode] = (nodeInflow[downstreamNode] as number) + result.massFlow;
+    const exactDrop = element.kind === "pipe" && isCreepingFlow(Math.abs(difference), pUp);
     const noise =
       FLOW_ROUNDING *
-      (Math.abs(result.dMassFlowdUpstreamPressure) * pUp +
-        Math.abs(result.dMassFlowdDownstreamPressure) * pDown);
+      (Math.abs(result.dMassFlowdUpstreamPressure) *
+        pressureResolution(system, x, upstream, pUp, exactDrop) +
+        Math.abs(result.dMassFlowdDownstreamPressure) *
+          pressureResolution(system, x, forward ? to : from, pDown, exactDrop));
     nodeFlowNoise[from] = (nodeFlowNoise[from] as number) + noise;
     nodeFlowNoise[to] = (nodeFlowNoise[to] as number) + noise;
     nodeNetOutflow[from] = (nodeNetOutflow[from] as number) + (massFlow[e] as number);
@@ -357,11 +418,14 @@ export function evaluateSystem(
             (sign * (flowSlopes[4 * e + 2 * column + 1] as number) * tS) / scale;
         }
       }
-      if (flow === 0) {
+      if (Math.abs(flow) <= NO_FLOW_WEIGHT * scale) {
         // At zero flow the energy terms vanish with their derivatives except through the flow:
         // m (T_arrive - T_d) has slope (T_arrive - T_d) dm, which is counted below for the
         // downstream end the flow would go to. With no flow both ends are candidates; the
-        // product is 0 at the solution, so the term is left out (it is of order eps).
+        // product is 0 at the solution, so the term is left out (it is of order eps). So for a
+        // flow below the no-flow floor: the junction pressures, held as offsets, resolve
+        // round-off flows of 1e-30 kg/s where the pressures themselves would be equal, and
+        // their slope over the tiny no-flow weight would swamp the junction's temperature row.
         continue;
       }
       // Energy row of the downstream node: |m| (T_arrive - T_d).

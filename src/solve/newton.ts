@@ -184,7 +184,7 @@ export function newtonSolve(
     // without that holding back the rest of the network.
     let limit = 1;
     for (let j = 0; j < system.junctionCount; j++) {
-      const p = x[2 * j] as number;
+      const p = 1 + (x[2 * j] as number); // p / pressureScale
       const dp = step[2 * j] as number;
       if (Math.abs(dp) > MAX_PRESSURE_CHANGE * p) {
         limit = Math.min(limit, (MAX_PRESSURE_CHANGE * p) / Math.abs(dp));
@@ -220,7 +220,8 @@ export function newtonSolve(
       const trial = new Float64Array(x.length);
       for (let i = 0; i < x.length; i++)
         trial[i] = (x[i] as number) + alphaShort * (step[i] as number);
-      if (!trial.every((value) => value > 0)) return outcome(false, "stalled");
+      if (!trial.every((value, i) => (i % 2 === 0 ? 1 + value : value) > 0))
+        return outcome(false, "stalled");
       const trialEvaluation = evaluateSystem(system, trial, true, evaluation.throughput);
       evaluations++;
       if (!(merit(trialEvaluation, system.temperatureScale) < norm))

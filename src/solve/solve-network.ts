@@ -16,7 +16,9 @@ import {
   evaluateSystem,
   type NetworkSystem,
   nodePressure,
+  nodePressureDifference,
   nodeTemperature,
+  pressureUnknown,
 } from "./network-system.js";
 import { type NewtonOutcome, newtonSolve, ROUND_OFF_CEILING } from "./newton.js";
 
@@ -24,7 +26,10 @@ import { type NewtonOutcome, newtonSolve, ROUND_OFF_CEILING } from "./newton.js"
 export interface SolveOptions {
   /**
    * Stop after this many milliseconds of wall time, returning the best iterate marked not
-   * converged. Overrides `settings.timeLimit` of the document. @defaultValue no limit
+   * converged. Overrides `settings.timeLimit` of the document. The time counts from when the
+   * checked document is handed to the solver: building the model, the first guess, Newton and
+   * the rescue; not reading and checking the document, nor assembling the results.
+   * @defaultValue no limit
    */
   timeLimitMs?: number;
   /**
@@ -95,24 +100,26 @@ export interface SolvedState {
   result: NetworkResult;
   /** The network's system (structure, elements, warm starts). */
   system: NetworkSystem;
-  /** Scaled unknowns of the final state (2 per junction: p / pScale, T / TScale). */
+  /** Scaled unknowns of the final state (2 per junction: p / pScale - 1, T / TScale). */
   x: Float64Array;
 }
 
 /** Solve a checked document and keep the solver's state (internal API). */
 export function solveWithState(checked: CheckedDocument, options: SolveOptions = {}): SolvedState {
-  const model = modelOf(checked);
-  const system = createNetworkSystem(model);
   const settings = checked.settings;
   const limitMs =
     options.timeLimitMs ??
     (settings.timeLimit !== undefined ? 1000 * settings.timeLimit : undefined);
   const now = limitMs !== undefined ? (options.now ?? (() => performance.now())) : undefined;
+  // The budget starts before the model is built: building, the sparse structure and the first
+  // guess count against it (reading the document does not: its time limit is not known before).
   const newtonOptions = {
     tolerance: settings.tolerance,
     maxIterations: settings.maxIterations,
     ...(limitMs !== undefined && now !== undefined ? { deadline: now() + limitMs, now } : {}),
   };
+  const model = modelOf(checked);
+  const system = createNetworkSystem(model);
 
   const start = options.initialResult
     ? (stateFromResult(system, options.initialResult) ?? initialGuess(system))
@@ -125,6 +132,7 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
   }));
   let diagnosis: NoSolutionDiagnosis | undefined;
   let status: NetworkResult["status"] = outcome.converged ? "converged" : "not-converged";
+  let stopReason = outcome.stopReason;
 
   if (!outcome.converged && outcome.stopReason !== "time") {
     const rescue = continuation(system, newtonOptions);
@@ -136,6 +144,10 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
         code: "continuation",
         message: `solved by ramping the demands up from zero in ${rescue.steps} steps (plain Newton from the first guess did not converge)`,
       });
+    } else if (rescue.timedOut) {
+      // Cut short by the time limit: the largest scale reached so far says nothing about the
+      // largest feasible one, so there is no evidence of infeasibility (defect M).
+      stopReason = "time";
     } else if (rescue.scale > 0 && rescue.scale < 1 && hasDemands(system)) {
       // Evidence of infeasibility: part of the demand solves, more does not, and edges are at
       // their capacity there. Without that evidence the result stays "not converged".
@@ -170,7 +182,7 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
   if (status === "not-converged") {
     warnings.unshift({
       code: "not-converged",
-      message: `not converged after ${iterations} iterations (${outcome.stopReason ?? "iterations"}); largest scaled residual ${Math.max(outcome.massResidual, outcome.energyResidual).toExponential(2)}: the numbers below are the best iterate, not a solution`,
+      message: `not converged after ${iterations} iterations (${stopReason ?? "iterations"})${stopReason === "time" && limitMs !== undefined ? `, the time limit of ${limitMs} ms ran out` : ""}; largest scaled residual ${Math.max(outcome.massResidual, outcome.energyResidual).toExponential(2)}: the numbers below are the best iterate, not a solution`,
     });
   }
   if (status === "no-solution" && diagnosis) {
@@ -217,7 +229,7 @@ function stateFromResult(
     const node = nodes[system.model.junctionNodes[j] as number];
     const old = node ? byId.get(node.id) : undefined;
     if (!old || !(old.pressure > 0) || !(old.temperature > 0)) return undefined;
-    x[2 * j] = old.pressure / system.pressureScale;
+    x[2 * j] = pressureUnknown(system, old.pressure);
     x[2 * j + 1] = old.temperature / system.temperatureScale;
   }
   return x;
@@ -229,6 +241,8 @@ interface ContinuationOutcome {
   outcome: NewtonOutcome | undefined;
   iterations: number;
   steps: number;
+  /** The time limit ended the ramp before it reached the stated demands or gave up. */
+  timedOut: boolean;
 }
 
 /** The system with every demand multiplied by `scale` (injections too). */
@@ -249,20 +263,30 @@ function continuation(
   const zero = withDemandScale(system, 0);
   let solved = newtonSolve(zero, initialGuess(zero), options);
   iterations += solved.iterations;
-  if (!solved.converged) return { scale: 0, outcome: undefined, iterations, steps };
+  if (!solved.converged) {
+    const timedOut = solved.stopReason === "time";
+    return { scale: 0, outcome: undefined, iterations, steps, timedOut };
+  }
   let scale = 0;
   let step = 0.25;
+  let timedOut = false;
   while (scale < 1 && step >= 1 / 1024) {
     if (
       options.deadline !== undefined &&
       options.now !== undefined &&
       options.now() > options.deadline
-    )
+    ) {
+      timedOut = true;
       break;
+    }
     const target = Math.min(1, scale + step);
     const attempt = newtonSolve(withDemandScale(system, target), solved.x, options);
     iterations += attempt.iterations;
     steps++;
+    if (attempt.stopReason === "time") {
+      timedOut = true;
+      break;
+    }
     if (attempt.converged) {
       scale = target;
       solved = attempt;
@@ -272,7 +296,7 @@ function continuation(
     }
   }
   // Evaluate the original system at the last solved state so flows and chokes are at hand.
-  return { scale, outcome: solved, iterations, steps };
+  return { scale, outcome: solved, iterations, steps, timedOut };
 }
 
 /** Why a network with fixed demands has no solution: how far it gets, and which edges choke. */
@@ -288,12 +312,14 @@ function diagnose(
     const at = withDemandScale(system, rescue.scale);
     const evaluation = evaluateSystem(at, rescue.outcome.x, false);
     const scratch = new PipeFlowEvaluation();
+    const limitingIndices: number[] = [];
     for (let e = 0; e < system.edgeCount; e++) {
       const from = system.model.edgeFrom[e] as number;
       const to = system.model.edgeTo[e] as number;
       const pFrom = nodePressure(at, rescue.outcome.x, from);
       const pTo = nodePressure(at, rescue.outcome.x, to);
-      const forward = pFrom >= pTo;
+      const difference = nodePressureDifference(at, rescue.outcome.x, from, to);
+      const forward = difference >= 0;
       const edgeState = evaluateEdgeFlow(
         system.elements[e] as EdgeElement,
         system.gas,
@@ -303,13 +329,22 @@ function diagnose(
         forward,
         scratch,
         true,
+        Math.abs(difference),
       );
       const flow = Math.abs(evaluation.massFlow[e] as number);
       const capacity = edgeState.capacity;
       if (edgeState.choked || (capacity > 0 && flow / capacity > 0.98)) {
         limitingEdges.push({ id: doc.edges[e]?.id ?? String(e), capacity, massFlow: flow });
+        limitingIndices.push(e);
       }
     }
+    // Listed in the file's order, as the results are (the model's order is by id).
+    const inFile = system.model.filePosition.edges;
+    const rank = limitingIndices.map((e) => inFile[e] as number);
+    const sorted = limitingEdges
+      .map((edge, k) => ({ edge, position: rank[k] as number }))
+      .sort((a, b) => a.position - b.position);
+    limitingEdges.splice(0, limitingEdges.length, ...sorted.map((entry) => entry.edge));
   }
   const openEquations: NoSolutionDiagnosis["openEquations"] = [];
   const residual = direct.evaluation.residual;

@@ -6,14 +6,14 @@
  * gets the network document from the caller.
  */
 
-import { Ajv2020 } from "ajv/dist/2020.js";
 import type { CheckedDocument, QuantityInput } from "../input/document-types.js";
 import type { InputIssue } from "../input/issues.js";
 import { catalogPipe, PIPE_SCHEDULES, parseNominalSize } from "../input/pipe-catalog.js";
 import { PIPE_DIMENSIONS } from "../input/pipe-catalog-data.js";
 import { parseQuantity, type QuantityKind } from "../input/quantity.js";
-import { parseJsonText, readNetworkDocument, schemaIssue } from "../input/read-document.js";
+import { parseJsonText, readNetworkDocument } from "../input/read-document.js";
 import { studySchema } from "../input/study-schema.js";
+import { compileValidator } from "../input/validate-schema.js";
 import { buildNetwork } from "../model/build-network.js";
 import type { DisplayKind } from "../output/display-units.js";
 import { DEFAULT_BLOCK_SIZE, MAX_CASES } from "./cases.js";
@@ -52,40 +52,11 @@ export type StudyReadResult =
       networkIssues: InputIssue[];
     };
 
-let compiledValidator: ReturnType<Ajv2020["compile"]> | undefined;
-
-/** The study schema's validator, compiled once on first use (it never changes). */
-function studyValidator(): ReturnType<Ajv2020["compile"]> {
-  if (compiledValidator === undefined) {
-    const ajv = new Ajv2020({
-      allErrors: true,
-      verbose: true,
-      strict: true,
-      strictRequired: false,
-      allowUnionTypes: true,
-    });
-    compiledValidator = ajv.compile(studySchema);
-  }
-  return compiledValidator;
-}
+const validateStudy = compileValidator(studySchema);
 
 /** Check a parsed value against schemas/study.schema.json; [] when it conforms. */
 export function validateStudySchema(value: unknown): StudyIssue[] {
-  const validate = studyValidator();
-  if (validate(value)) return [];
-  // Copy at once: ajv keeps only the last call's errors on the validator.
-  const errors = [...(validate.errors ?? [])];
-  const seen = new Set<string>();
-  const issues: StudyIssue[] = [];
-  for (const error of errors) {
-    const issue = schemaIssue(error);
-    if (issue === undefined) continue;
-    const key = `${issue.path}\u0000${issue.message}`;
-    if (seen.has(key)) continue;
-    seen.add(key);
-    issues.push(issue);
-  }
-  return sortStudyIssues(issues);
+  return sortStudyIssues(validateStudy(value));
 }
 
 /** Read a study from JSON text (see {@link readStudyDocument}). */

@@ -90,7 +90,8 @@ function rescaled(x: Float64Array, from: NetworkSystem, to: NetworkSystem): Floa
   const temperatureRatio = from.temperatureScale / to.temperatureScale;
   const moved = new Float64Array(x.length);
   for (let j = 0; j < from.junctionCount; j++) {
-    moved[2 * j] = (x[2 * j] as number) * pressureRatio;
+    // Pressure unknowns are offsets p / pressureScale - 1.
+    moved[2 * j] = (1 + (x[2 * j] as number)) * pressureRatio - 1;
     moved[2 * j + 1] = (x[2 * j + 1] as number) * temperatureRatio;
   }
   return moved;

@@ -244,10 +244,10 @@ describe("files that cannot be used (in-memory io)", () => {
     expect(run.code).toBe(0);
   });
 
-  // Defect I (test/hardening/hard-networks.test.ts): deeply nested invalid JSON overflows the
-  // stack of the parser that looks for the line and column; the CLI says "internal error" and
-  // exits 3 instead of 2.
-  it.fails("invalid JSON nested 10 000 deep is exit 2 with line and column (defect I)", async () => {
+  // Defect I (fixed; test/hardening/hard-networks.test.ts): deeply nested invalid JSON overflowed
+  // the stack of the parser that looks for the line and column; the CLI said "internal error"
+  // and exited 3 instead of 2.
+  it("invalid JSON nested 10 000 deep is exit 2 with line and column (defect I)", async () => {
     const run = await runCli(["check", "net.json"], {
       "net.json": `{"nodes": ${"[".repeat(10_000)}}`,
     });

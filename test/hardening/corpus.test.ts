@@ -23,7 +23,7 @@ const CORPUS_SIZE = 56 * 18;
  * The share converged or diagnosed when this test was written: a floor, so that a change that
  * makes more networks fail is caught. Raise it as defects are fixed (see the it.fails below).
  */
-const RATE_FLOOR = 0.97;
+const RATE_FLOOR = 0.995;
 
 interface Solved {
   item: CorpusCase;
@@ -197,9 +197,11 @@ describe("the hardening corpus", () => {
     expect(good.length / solved.length).toBeGreaterThanOrEqual(RATE_FLOOR);
   });
 
-  // Defect B2: tiny-huge networks whose flows are below the resolution of the pressures stall
-  // (tiny-flow-through-header.json in hard-networks.test.ts). Defects B to E, which kept the
-  // rate at 83 % when the corpus was first run, are fixed (fff371f).
+  // Defect B3: two tiny-huge networks (seeds 736 and 871) whose flows are below the resolution
+  // of the pressure offsets at junctions far below the highest reservoir pressure still stall
+  // (offsets-far-below-supply-*.json in hard-networks.test.ts). B2 (22 networks) is fixed by the
+  // pressure offsets and the small-drop law; B to E, which kept the rate at 83 % when the corpus
+  // was first run, by fff371f.
   it.fails("converges or diagnoses every network of the corpus (100 %)", () => {
     const failing = solved.filter((entry) => !["converged", "no-solution"].includes(kindOf(entry)));
     const byFamily = new Map<CorpusFamily, number[]>();

@@ -69,8 +69,23 @@ const DEFECTS: {
   {
     file: "tiny-flow-through-header.json",
     expected: "converged",
+    open: false,
+    defect:
+      "B2 (fixed: junction pressures held as offsets): flows below the resolution of the pressures stalled (what remains of B)",
+  },
+  {
+    file: "offsets-far-below-supply-736.json",
+    expected: "converged",
     open: true,
-    defect: "B2: flows below the resolution of the pressures still stall (what remains of B)",
+    defect:
+      "B3: flows on drops of 1e-12 of the pressure at junctions far below the highest reservoir pressure (offsets of -0.6) still stall",
+  },
+  {
+    file: "offsets-far-below-supply-871.json",
+    expected: "converged",
+    open: true,
+    defect:
+      "B3: flows on drops of 1e-12 of the pressure beside a second reservoir at 0.6 of the highest still stall",
   },
   {
     file: "tiny-flow-large-bore.json",
@@ -161,7 +176,7 @@ describe("defects, reduced to small networks", () => {
   });
 
   // Defect G: the path of an unknown field is `${path}/${name}` without RFC 6901 escaping
-  // (schemaIssue in src/input/read-document.ts), so a field named "a/b" is reported at
+  // (schemaIssue in src/input/validate-schema.ts), so a field named "a/b" is reported at
   // /edges/0/a/b, a place that does not exist.
   it("an unknown field named a/b is reported at /edges/0/a~1b (RFC 6901 escaping; defect G, fixed)", () => {
     const document = fixture("dead-end-stub.json") as { edges: Record<string, unknown>[] };
@@ -171,10 +186,11 @@ describe("defects, reduced to small networks", () => {
     expect(checked.issues.map((issue) => issue.path)).toContain("/edges/0/a~1b");
   });
 
-  // Defect I: parseJsonText catches JSON.parse's SyntaxError and asks jsonc-parser, which
-  // recurses once per nesting level, for the line and column: 10 000 unclosed brackets overflow
-  // the call stack and a RangeError escapes checkNetwork and solveNetwork (exit 3 in the CLI).
-  it.fails("invalid JSON nested 10 000 deep is an input error with line and column, not a RangeError (defect I)", () => {
+  // Defect I (fixed): parseJsonText caught JSON.parse's SyntaxError and asked jsonc-parser,
+  // which recurses once per nesting level, for the line and column: 10 000 unclosed brackets
+  // overflowed the call stack and a RangeError escaped checkNetwork and solveNetwork (exit 3 in
+  // the CLI). The first error is now found by a walk with its own stack.
+  it("invalid JSON nested 10 000 deep is an input error with line and column, not a RangeError (defect I)", () => {
     const text = `{"nodes": ${"[".repeat(10_000)}}`;
     let error: unknown;
     try {
@@ -184,6 +200,9 @@ describe("defects, reduced to small networks", () => {
     }
     expect(error).toBeInstanceOf(InputError);
     expect((error as InputError).issues[0]?.code).toBe("json-syntax");
+    expect((error as InputError).issues[0]?.message).toBe(
+      "invalid JSON at line 1, column 10011: value expected",
+    );
   });
 
   it("valid JSON nested 100 000 deep is an input error with a path (no stack overflow)", () => {

@@ -36,8 +36,11 @@ function plainNewton(document: unknown, maxIterations = 100, tolerance = 1e-9) {
       residual.map((value) => -value),
     );
     const next = x.map((value, i) => value + (step[i] as number));
-    // A full step to a non-positive pressure or temperature ends plain Newton.
-    if (!next.every((value) => value > 0 && Number.isFinite(value))) {
+    // A full step to a non-positive pressure or temperature ends plain Newton (the pressure
+    // unknowns are offsets p / pressureScale - 1).
+    if (
+      !next.every((value, i) => (i % 2 === 0 ? 1 + value : value) > 0 && Number.isFinite(value))
+    ) {
       return { converged: false, iterations: iteration + 1 };
     }
     x = next;

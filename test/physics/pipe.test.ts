@@ -165,3 +165,110 @@ describe("derivatives of the pipe flow used by the network Jacobian", () => {
     expect(tiny.massFlow / (1e-4 * expected)).toBeCloseTo(1, 4);
   });
 });
+
+/**
+ * The small-drop law of the pipe kernel (below a pressure drop of 1e-10 of the pressure, with
+ * the drop passed apart from the pressures): the incompressible plenum-to-plenum relation
+ * p0 - pd = (1 + fD L/D + K) G^2 / (2 rho) (common practice, no source: Bernoulli with the
+ * entry's dynamic head, Darcy-Weisbach friction and minor losses).
+ */
+describe("the small-drop law", () => {
+  const kernelGas = pipeGas(air);
+  const p0 = 1e6;
+  const t0 = 300;
+  const density = p0 / (air.specificGasConstant * t0);
+  const viscosity = (1.458e-6 * t0 ** 1.5) / (t0 + 110.4); // US Standard Atmosphere 1976 law
+  const flowAt = (pipe: PipeGeometry, p: number, t: number, drop: number) =>
+    evaluatePipeFlow(pipe, kernelGas, p, t, p - drop, new PipeFlowEvaluation(), true, drop);
+
+  it("is the laminar relation with entry head and minor losses, solved in closed form here", () => {
+    // DN 600, 40 m, K = 2: Re about 100 at a drop of 2e-5 Pa (laminar, fD = 64/Re).
+    const pipe = pipeGeometry({ length: 40, diameter: 0.6, roughness: 5e-5, minorLoss: 2 });
+    const area = (Math.PI / 4) * 0.36;
+    for (const drop of [1e-9, 2e-5, 1e-4]) {
+      // drop = a G + b G^2, a = 32 mu L / (rho D^2), b = (1 + K) / (2 rho).
+      const a = (32 * viscosity * 40) / (density * 0.36);
+      const b = 3 / (2 * density);
+      const flux = (-a + Math.sqrt(a * a + 4 * b * drop)) / (2 * b);
+      const result = flowAt(pipe, p0, t0, drop);
+      expect(result.reynolds).toBeLessThan(2300);
+      // 1e-9: the closed form above loses digits to cancellation (-a + sqrt) at small drops.
+      expect(Math.abs(result.massFlow / (flux * area) - 1)).toBeLessThan(1e-9);
+    }
+  });
+
+  it("takes the drop as given, not the difference of the rounded pressures", () => {
+    const pipe = pipeGeometry({ length: 40, diameter: 0.6, roughness: 5e-5 });
+    // 1e-6 Pa at 10 bar is about 8 600 units in the last place of p0.
+    const one = flowAt(pipe, p0, t0, 1e-6).massFlow;
+    const more = flowAt(pipe, p0, t0, 1e-6 * (1 + 1e-9)).massFlow;
+    expect(more / one - 1).toBeGreaterThan(0.9e-9);
+    expect(more / one - 1).toBeLessThan(1.1e-9);
+  });
+
+  it("has derivatives that match central differences, laminar and turbulent", () => {
+    const cases: [string, PipeGeometry, number][] = [
+      [
+        "laminar, K = 2",
+        pipeGeometry({ length: 40, diameter: 0.6, roughness: 5e-5, minorLoss: 2 }),
+        2e-5,
+      ],
+      // A fixed friction factor of 0.02 above the laminar value: Re far above 2300.
+      [
+        "fixed friction factor",
+        pipeGeometry({ length: 3, diameter: 1.2, frictionFactor: 0.02 }),
+        9e-5,
+      ],
+      ["Colebrook-White", pipeGeometry({ length: 2, diameter: 1.5, roughness: 4.5e-5 }), 9e-5],
+    ];
+    for (const [name, pipe, drop] of cases) {
+      const base = flowAt(pipe, p0, t0, drop);
+      if (name !== "laminar, K = 2") expect(base.reynolds, name).toBeGreaterThan(2300);
+      const hp = 1e-3 * drop;
+      const ht = 1e-6 * t0;
+      const checks: [number, number][] = [
+        [
+          base.dMassFlowdDownstreamPressure,
+          (flowAt(pipe, p0, t0, drop - hp).massFlow - flowAt(pipe, p0, t0, drop + hp).massFlow) /
+            (2 * hp),
+        ],
+        [
+          base.dMassFlowdUpstreamPressure,
+          (flowAt(pipe, p0 + hp, t0, drop + hp).massFlow -
+            flowAt(pipe, p0 - hp, t0, drop - hp).massFlow) /
+            (2 * hp),
+        ],
+        [
+          base.dMassFlowdUpstreamTemperature,
+          (flowAt(pipe, p0, t0 + ht, drop).massFlow - flowAt(pipe, p0, t0 - ht, drop).massFlow) /
+            (2 * ht),
+        ],
+      ];
+      for (const [analytic, difference] of checks) {
+        // Central differences with a relative step of 1e-3 in a smooth relation: 1e-5 relative.
+        expect(Math.abs(analytic / difference - 1), name).toBeLessThan(1e-5);
+      }
+    }
+  });
+
+  it("meets the compressible relation where it takes over (1e-10 of the pressure)", () => {
+    const pipe = pipeGeometry({ length: 40, diameter: 0.6, roughness: 5e-5, minorLoss: 2 });
+    const below = flowAt(pipe, p0, t0, 0.999e-10 * p0).massFlow;
+    const above = evaluatePipeFlow(
+      pipe,
+      kernelGas,
+      p0,
+      t0,
+      p0 - 1.001e-10 * p0,
+      new PipeFlowEvaluation(),
+    ).massFlow;
+    // Laminar (Re about 440): the ratio of the two flows is that of the closed form
+    // a G + b G^2 = drop at the two drops. The compressible relation resolves ln(pd/p0) = -1e-10
+    // to about 1e-6 of itself (rounding of pd): 1e-5.
+    const a = (32 * viscosity * 40) / (density * 0.36);
+    const b = 3 / (2 * density);
+    const flux = (drop: number) => (-a + Math.sqrt(a * a + 4 * b * drop)) / (2 * b);
+    const expected = flux(1.001e-10 * p0) / flux(0.999e-10 * p0);
+    expect(Math.abs(above / below / expected - 1)).toBeLessThan(1e-5);
+  });
+});
