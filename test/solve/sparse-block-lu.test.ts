@@ -1,5 +1,10 @@
 import { describe, expect, it } from "vitest";
 import {
+  multiplyBlockMatrix,
+  reuseOfFactorsPays,
+  solveWithFrozenFactors,
+} from "../../src/solve/frozen-factor-gmres.js";
+import {
   analyzeBlockPattern,
   factorBlockMatrix,
   solveFactored,
@@ -148,5 +153,85 @@ describe("sparse block LU", () => {
     expect(factorization.perturbedPivots).toEqual([0]);
     const x = solveFactored(factorization, new Float64Array([1, 1]));
     expect(Number.isFinite(x[0])).toBe(true);
+  });
+});
+
+describe("GMRES with the factors of an earlier matrix (frozen-factor-gmres)", () => {
+  /** The same pattern's matrix with every stored entry changed by up to `amount` of itself. */
+  function perturbed(values: Float64Array, amount: number, rand: () => number): Float64Array {
+    return values.map((value) => value * (1 + amount * (2 * rand() - 1)));
+  }
+  /** Dense matrix of block values (the inverse of buildCase's `put`), for the reference. */
+  function denseOf(structure: ReturnType<typeof analyzeBlockPattern>, values: Float64Array) {
+    const n = 2 * structure.size;
+    const dense: number[][] = Array.from({ length: n }, () => new Array<number>(n).fill(0));
+    for (let row = 0; row < structure.size; row++) {
+      for (let column = 0; column < structure.size; column++) {
+        const index = structure.blockIndex(row, column);
+        if (index < 0) continue;
+        for (let k = 0; k < 4; k++) {
+          (dense[2 * row + (k >> 1)] as number[])[2 * column + (k & 1)] = values[
+            4 * index + k
+          ] as number;
+        }
+      }
+    }
+    return dense;
+  }
+
+  it("multiplies a block matrix as its dense form does (1e-14 relative: sums of a few products)", () => {
+    const rand = random(11);
+    const { structure, values, dense, rhs } = buildCase(gridGraph(6, 7), rand);
+    const y = new Float64Array(rhs.length);
+    multiplyBlockMatrix(structure, values, rhs, y);
+    for (let i = 0; i < rhs.length; i++) {
+      const row = dense[i] as number[];
+      const expected = row.reduce((sum, a, j) => sum + a * (rhs[j] as number), 0);
+      expect(Math.abs((y[i] as number) - expected)).toBeLessThan(1e-14 * (1 + Math.abs(expected)));
+    }
+  });
+
+  it("solves a changed matrix with the old factors, agreeing with a dense solve of the new one", () => {
+    for (let seed = 1; seed <= 10; seed++) {
+      const rand = random(100 + seed);
+      const { structure, values, rhs } = buildCase(randomGraph(60, 50, rand), rand);
+      const factors = factorBlockMatrix(structure, values);
+      const changed = perturbed(values, 0.2, rand);
+      const solved = solveWithFrozenFactors(changed, factors, rhs, 1e-13, 40);
+      expect(solved.x, `seed ${seed}`).toBeDefined();
+      expect(solved.iterations).toBeGreaterThan(0);
+      const reference = denseSolve(denseOf(structure, changed), [...rhs]);
+      const scale = Math.max(...reference.map(Math.abs));
+      // A residual of 1e-13 of the right-hand side moves the solution by about the condition
+      // number (here below 100: diagonally dominant blocks) times that: 1e-10 leaves room.
+      for (let i = 0; i < reference.length; i++) {
+        expect(Math.abs((solved.x?.[i] as number) - (reference[i] as number))).toBeLessThan(
+          1e-10 * scale,
+        );
+      }
+    }
+  });
+
+  it("gives up (no solution) when the old factors are too far off for its iterations", () => {
+    const rand = random(5);
+    const { structure, values, rhs } = buildCase(gridGraph(8, 8), rand);
+    const factors = factorBlockMatrix(structure, values);
+    const unrelated = perturbed(values, 3, rand);
+    expect(solveWithFrozenFactors(unrelated, factors, rhs, 1e-12, 2).x).toBeUndefined();
+  });
+
+  it("reuses factors only where factoring costs much more than solving: not on a tree", () => {
+    const patternOf = (graph: Graph) => {
+      const neighbours: number[][] = Array.from({ length: graph.size }, () => []);
+      for (const [i, j] of graph.edges) {
+        neighbours[i]?.push(j);
+        neighbours[j]?.push(i);
+      }
+      return analyzeBlockPattern({ size: graph.size, neighbours });
+    };
+    expect(reuseOfFactorsPays(patternOf(treeGraph(3000, random(1))))).toBe(false);
+    // A 70 x 70 grid factors in about 24 times the block operations of a solve.
+    expect(reuseOfFactorsPays(patternOf(gridGraph(70, 70)))).toBe(true);
+    expect(reuseOfFactorsPays(patternOf(gridGraph(20, 20)))).toBe(false);
   });
 });
