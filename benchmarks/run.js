@@ -4,6 +4,15 @@
 //
 //   npm run bench                 sizes 10 .. 10,000
 //   npm run bench -- --large      adds 100,000
+//   npm run bench -- --sizes 1000,10000 --topologies mixed
+//
+// Per size and topology: Newton iterations, cold solve time (the whole solveNetwork: reading,
+// model, structure, first guess, Newton, results and their independent check), ms per 1,000
+// edges, peak resident memory, the solve time over one full residual evaluation, and the speed
+// ratio against a generic approach on the same network: Newton with a dense finite-difference
+// Jacobian (one residual evaluation per unknown) and the dense LU of ml-matrix, run up to the
+// size where it still finishes within GENERIC_LIMIT_MS. At 10,000 edges (mixed) also a warm
+// start: the same network re-solved from its solution after every demand grew by 1 %.
 //
 // Run after `npm run build` (npm run bench does that). Timing lives here, never in tests.
 import { execFileSync } from "node:child_process";
@@ -11,7 +20,12 @@ import { mkdirSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import { fileURLToPath } from "node:url";
 
-const here = fileURLToPath(new URL(".", import.meta.url));
+/** A generic run is stopped once it has taken this long (ms). */
+const GENERIC_LIMIT_MS = 60_000;
+/** Largest size at which the generic approach is tried at all. */
+const GENERIC_MAX_EDGES = 1000;
+/** The size at which the warm start is measured. */
+const WARM_START_EDGES = 10_000;
 
 if (process.argv[2] === "--child") {
   await child(Number(process.argv[3]), process.argv[4], Number(process.argv[5]));
@@ -19,11 +33,32 @@ if (process.argv[2] === "--child") {
   await parent();
 }
 
+function option(name) {
+  const at = process.argv.indexOf(name);
+  return at >= 0 ? process.argv[at + 1] : undefined;
+}
+
 async function parent() {
-  const sizes = [10, 100, 1000, 10000];
+  let sizes = [10, 100, 1000, 10000];
   if (process.argv.includes("--large")) sizes.push(100000);
-  const topologies = ["tree", "mixed", "grid"];
+  if (option("--sizes")) sizes = option("--sizes").split(",").map(Number);
+  const topologies = (option("--topologies") ?? "tree,mixed,grid").split(",");
   const rows = [];
+  const header = [
+    "edges".padStart(7),
+    "topology".padEnd(8),
+    "nodes".padStart(7),
+    "loops".padStart(6),
+    "status".padEnd(10),
+    "iter".padStart(4),
+    "solve ms".padStart(9),
+    "ms/1000e".padStart(9),
+    "peak MB".padStart(8),
+    "t/eval".padStart(7),
+    "generic ms".padStart(11),
+    "speed-up".padStart(9),
+  ].join(" ");
+  console.log(header);
   for (const edges of sizes) {
     for (const topology of topologies) {
       const output = execFileSync(
@@ -40,33 +75,90 @@ async function parent() {
       );
       const row = JSON.parse(output.trim().split("\n").pop());
       rows.push(row);
-      console.log(
-        [
-          String(row.edges).padStart(7),
-          row.topology.padEnd(6),
-          String(row.nodes).padStart(7),
-          String(row.loops).padStart(6),
-          row.status.padEnd(10),
-          String(row.iterations).padStart(4),
-          row.solveMs.toFixed(0).padStart(8),
-          row.msPer1000Edges.toFixed(1).padStart(9),
-          row.peakMb.toFixed(0).padStart(7),
-          row.evaluationRatio.toFixed(1).padStart(7),
-        ].join(" "),
-      );
+      console.log(formatRow(row));
+      if (row.warmStart) {
+        console.log(
+          `        warm start after +1 % on every demand: ${row.warmStart.solveMs.toFixed(0)} ms, ` +
+            `${row.warmStart.iterations} iterations, ${(row.warmStart.solveMs / row.solveMs).toFixed(2)} of the cold solve`,
+        );
+      }
     }
   }
-  const machine = `${os.cpus()[0]?.model ?? "cpu"} x${os.cpus().length}, ${(os.totalmem() / 2 ** 30).toFixed(0)} GiB, node ${process.version}`;
+  const machine = machineDescription();
+  const growth = growthExponents(rows);
   mkdirSync(new URL("./results/", import.meta.url), { recursive: true });
   const stamp = new Date().toISOString().replace(/[:.]/g, "-");
   const file = new URL(`./results/solve-${stamp}.json`, import.meta.url);
-  writeFileSync(file, `${JSON.stringify({ machine, rows }, null, 2)}\n`);
-  console.log(`\ncolumns: edges, topology, nodes, loops, status, Newton iterations,`);
-  console.log(
-    `solve ms (cold, whole solveNetwork), ms per 1000 edges, peak RSS MB, solve time / one residual evaluation`,
+  const loadAverage = os.loadavg();
+  writeFileSync(
+    file,
+    `${JSON.stringify({ machine, loadAverage, growthExponents: growth, rows }, null, 2)}\n`,
   );
-  console.log(`machine: ${machine}\nwritten ${fileURLToPath(file)}`);
-  void here;
+  console.log(`\ngrowth of solve time from 1,000 to 100,000 edges (exponent of n):`);
+  for (const [topology, exponent] of Object.entries(growth)) {
+    console.log(`  ${topology}: n^${exponent.toFixed(2)}`);
+  }
+  console.log(
+    `\ncolumns: edges, topology, nodes, loops (edges - nodes + 1), status, Newton iterations,`,
+  );
+  console.log(
+    `solve ms (cold, whole solveNetwork), ms per 1000 edges, peak RSS MB, solve time / one residual evaluation,`,
+  );
+  console.log(
+    `generic approach ms (dense finite-difference Jacobian + ml-matrix LU; "-" not run, ">60000" stopped), its time / ours; "stalled": no decrease of the residual along its Newton step`,
+  );
+  console.log(
+    `machine: ${machine}; load average at the end ${loadAverage.map((v) => v.toFixed(1)).join(" ")}`,
+  );
+  console.log(`written ${fileURLToPath(file)}`);
+}
+
+function formatRow(row) {
+  const generic =
+    row.generic === undefined
+      ? "-"
+      : row.generic.finished
+        ? row.generic.solveMs.toFixed(0)
+        : row.generic.stalled
+          ? "stalled"
+          : `>${GENERIC_LIMIT_MS}`;
+  const speedUp =
+    row.generic === undefined || row.generic.stalled
+      ? "-"
+      : `${row.generic.finished ? "" : ">"}${(row.generic.solveMs / row.solveMs).toFixed(0)}`;
+  return [
+    String(row.edges).padStart(7),
+    row.topology.padEnd(8),
+    String(row.nodes).padStart(7),
+    String(row.loops).padStart(6),
+    row.status.padEnd(10),
+    String(row.iterations).padStart(4),
+    row.solveMs.toFixed(0).padStart(9),
+    row.msPer1000Edges.toFixed(1).padStart(9),
+    row.peakMb.toFixed(0).padStart(8),
+    row.evaluationRatio.toFixed(1).padStart(7),
+    generic.padStart(11),
+    speedUp.padStart(9),
+  ].join(" ");
+}
+
+/** Exponent b of t ~ n^b between the 1,000- and 100,000-edge rows of each topology. */
+function growthExponents(rows) {
+  const growth = {};
+  for (const topology of new Set(rows.map((row) => row.topology))) {
+    const small = rows.find((row) => row.topology === topology && row.edges === 1000);
+    const large = rows.find((row) => row.topology === topology && row.edges >= 100000);
+    if (small && large) {
+      growth[topology] =
+        Math.log(large.solveMs / small.solveMs) / Math.log(large.edges / small.edges);
+    }
+  }
+  return growth;
+}
+
+function machineDescription() {
+  const cpus = os.cpus();
+  return `${cpus[0]?.model ?? "cpu"}, ${cpus.length} logical cores (os.availableParallelism ${os.availableParallelism()}), ${(os.totalmem() / 2 ** 30).toFixed(0)} GiB, ${os.platform()} ${os.release()}, node ${process.version}`;
 }
 
 async function child(edges, topology, seed) {
@@ -88,22 +180,44 @@ async function child(edges, topology, seed) {
   const solveMs = performance.now() - started;
   peak = Math.max(peak, process.memoryUsage().rss);
   clearInterval(sampler);
-  // One full residual evaluation at the solution, warm (the unit of the cost ratio).
+
+  // One full residual evaluation at the solution, warm (the unit of the cost ratio): every
+  // edge's flow relation and the node balances, as Newton's line search needs it.
   const read = readNetworkDocument(document);
   const built = buildNetwork(read.document);
   const networkSystem = system.createNetworkSystem(built.model);
-  const x = new Float64Array(2 * networkSystem.junctionCount);
-  const byId = new Map(result.nodes.map((node) => [node.id, node]));
-  for (let j = 0; j < networkSystem.junctionCount; j++) {
-    const node = byId.get(read.document.nodes[built.model.junctionNodes[j]].id);
-    x[2 * j] = node.pressure / networkSystem.pressureScale;
-    x[2 * j + 1] = node.temperature / networkSystem.temperatureScale;
-  }
+  const x = stateOf(networkSystem, result, read.document, built.model);
   system.evaluateSystem(networkSystem, x, false);
-  const evaluationStart = performance.now();
-  const repeats = 3;
-  for (let k = 0; k < repeats; k++) system.evaluateSystem(networkSystem, x, false);
-  const evaluationMs = (performance.now() - evaluationStart) / repeats;
+  const repeats = 5;
+  let evaluationMs = Number.POSITIVE_INFINITY;
+  for (let k = 0; k < repeats; k++) {
+    const evaluationStart = performance.now();
+    system.evaluateSystem(networkSystem, x, false);
+    evaluationMs = Math.min(evaluationMs, performance.now() - evaluationStart);
+  }
+
+  let warmStart;
+  if (edges === WARM_START_EDGES && topology === "mixed") {
+    const changed = {
+      ...document,
+      nodes: document.nodes.map((node) =>
+        node.demand === undefined ? node : { ...node, demand: node.demand * 1.01 },
+      ),
+    };
+    const warmStarted = performance.now();
+    const warm = solveNetwork(changed, { initialResult: result });
+    warmStart = {
+      solveMs: performance.now() - warmStarted,
+      iterations: warm.iterations,
+      status: warm.status,
+    };
+  }
+
+  let generic;
+  if (edges <= GENERIC_MAX_EDGES) {
+    generic = await genericSolve(system, networkSystem, read.document.settings.tolerance);
+  }
+
   const nodes = document.nodes.length;
   console.log(
     JSON.stringify({
@@ -116,7 +230,110 @@ async function child(edges, topology, seed) {
       solveMs,
       msPer1000Edges: (1000 * solveMs) / document.edges.length,
       peakMb: peak / 2 ** 20,
+      evaluationMs,
       evaluationRatio: solveMs / evaluationMs,
+      ...(warmStart ? { warmStart } : {}),
+      ...(generic ? { generic } : {}),
     }),
   );
+}
+
+/** Scaled unknowns of a result (2 per junction), as the solver holds them. */
+function stateOf(networkSystem, result, document, model) {
+  const x = new Float64Array(2 * networkSystem.junctionCount);
+  const byId = new Map(result.nodes.map((node) => [node.id, node]));
+  for (let j = 0; j < networkSystem.junctionCount; j++) {
+    const node = byId.get(document.nodes[model.junctionNodes[j]].id);
+    x[2 * j] = node.pressure / networkSystem.pressureScale;
+    x[2 * j + 1] = node.temperature / networkSystem.temperatureScale;
+  }
+  return x;
+}
+
+/**
+ * The generic approach, for comparison: Newton on the same residuals (the same system, the same
+ * first guess) with a dense Jacobian by forward differences, one residual evaluation per unknown,
+ * and the dense LU of ml-matrix; a backtracking line search on the residual norm. Counted from
+ * the first guess on (reading and model building are left to the fast solver's account).
+ */
+async function genericSolve(system, networkSystem, tolerance) {
+  const { Matrix, LuDecomposition } = await import("ml-matrix");
+  const { createNetworkSystem, evaluateSystem } = system;
+  const { initialGuess } = await import("../dist/src/solve/initial-guess.js");
+  const fresh = createNetworkSystem(networkSystem.model);
+  const started = performance.now();
+  let x = initialGuess(fresh);
+  const size = x.length;
+  // Residuals with the mass scale W of the current iterate held fixed within an iteration (as
+  // the fast solver's line search does), so that trial norms are comparable.
+  let throughput;
+  const residualOf = (state) => evaluateSystem(fresh, state, false, throughput).residual;
+  const ownScale = (state) => {
+    const evaluation = evaluateSystem(fresh, state, false);
+    throughput = evaluation.throughput;
+    return evaluation.residual;
+  };
+  const largest = (r) => r.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
+  const normOf = (r) => Math.hypot(...r);
+  let residual = ownScale(x);
+  let iterations = 0;
+  let finished = false;
+  let stalled = false;
+  // Forward differences leave about sqrt(eps) of relative error in the Jacobian; the loop stops
+  // at the solver's tolerance or when it no longer gets closer.
+  while (performance.now() - started < GENERIC_LIMIT_MS && iterations < 100) {
+    if (largest(residual) <= Math.max(tolerance, 1e-8)) {
+      finished = true;
+      break;
+    }
+    iterations++;
+    const jacobian = new Matrix(size, size);
+    const shifted = Float64Array.from(x);
+    for (let column = 0; column < size; column++) {
+      const h = 1e-7 * Math.max(1, Math.abs(x[column]));
+      shifted[column] = x[column] + h;
+      const r = residualOf(shifted);
+      shifted[column] = x[column];
+      for (let row = 0; row < size; row++) jacobian.set(row, column, (r[row] - residual[row]) / h);
+      if (performance.now() - started > GENERIC_LIMIT_MS) break;
+    }
+    if (performance.now() - started > GENERIC_LIMIT_MS) break;
+    // A choked edge's flow does not depend on its downstream pressure, which can leave a column
+    // of zeros: a diagonal shift of 1e-10 of each row's size keeps the LU defined.
+    for (let row = 0; row < size; row++) {
+      let rowSize = 0;
+      for (let column = 0; column < size; column++) rowSize += Math.abs(jacobian.get(row, column));
+      jacobian.set(row, row, jacobian.get(row, row) - 1e-10 * (rowSize || 1));
+    }
+    const step = new LuDecomposition(jacobian)
+      .solve(Matrix.columnVector(Array.from(residual, (v) => -v)))
+      .getColumn(0);
+    let alpha = 1;
+    for (let j = 0; j < size; j += 2) {
+      if (Math.abs(step[j]) > 0.5 * x[j]) alpha = Math.min(alpha, (0.5 * x[j]) / Math.abs(step[j]));
+    }
+    const norm = normOf(residual);
+    let accepted = false;
+    while (alpha > 1e-6) {
+      const trial = x.map((v, i) => v + alpha * step[i]);
+      if (normOf(residualOf(trial)) < norm) {
+        x = trial;
+        residual = ownScale(trial);
+        accepted = true;
+        break;
+      }
+      alpha *= 0.5;
+    }
+    if (!accepted) {
+      stalled = true;
+      break;
+    }
+  }
+  return {
+    finished,
+    stalled,
+    solveMs: performance.now() - started,
+    iterations,
+    finalResidual: largest(residual),
+  };
 }

@@ -14,12 +14,20 @@ import {
   squaredLawResistance,
 } from "../physics/edge-flow.js";
 import { darcyFrictionFactor } from "../physics/friction.js";
+import { reuseOfFactorsPays, solveWithFrozenFactors } from "./frozen-factor-gmres.js";
 import type { NetworkSystem } from "./network-system.js";
 import { NO_FLOW_WEIGHT, pressureUnknown } from "./network-system.js";
-import { factorBlockMatrix, solveFactored } from "./sparse-block-lu.js";
+import { type BlockLuFactorization, factorBlockMatrix, solveFactored } from "./sparse-block-lu.js";
 
 /** Number of linear-theory rounds. */
 const ROUNDS = 8;
+/**
+ * Where reusing factors pays (src/solve/frozen-factor-gmres.ts) the rounds after the first solve by GMRES
+ * with the first round's factors, to this relative residual (a first guess needs no more), and
+ * factor again only when 12 GMRES iterations do not reach it.
+ */
+const FROZEN_ROUND_TOLERANCE = 1e-6;
+const FROZEN_ROUND_ITERATIONS = 12;
 
 /** Scaled unknowns of a first guess, 2 per junction [p / pScale - 1, T / TScale]. */
 export function initialGuess(system: NetworkSystem): Float64Array {
@@ -59,6 +67,7 @@ export function initialGuess(system: NetworkSystem): Float64Array {
     if (model.isReservoir[node] === 1) squared[node] = (system.fixedPressure[node] as number) ** 2;
   }
 
+  let kept: BlockLuFactorization | undefined;
   for (let round = 0; round < ROUNDS; round++) {
     const values = new Float64Array(4 * structure.blockCount);
     const rhs = new Float64Array(2 * junctionCount);
@@ -90,7 +99,16 @@ export function initialGuess(system: NetworkSystem): Float64Array {
             (rhs[2 * b] as number) - (conductance * (squared[from] as number)) / squaredScale;
       }
     }
-    const solution = solveFactored(factorBlockMatrix(structure, values), rhs);
+    let solution =
+      kept === undefined
+        ? undefined
+        : solveWithFrozenFactors(values, kept, rhs, FROZEN_ROUND_TOLERANCE, FROZEN_ROUND_ITERATIONS)
+            .x;
+    if (solution === undefined) {
+      const factors = factorBlockMatrix(structure, values);
+      if (reuseOfFactorsPays(structure)) kept = factors;
+      solution = solveFactored(factors, rhs);
+    }
     const floor = (0.05 * pMin) ** 2;
     for (let j = 0; j < junctionCount; j++) {
       const node = model.junctionNodes[j] as number;

@@ -398,11 +398,10 @@ export function evaluateSystem(
     for (let e = 0; e < edgeCount; e++) {
       const from = model.edgeFrom[e] as number;
       const to = model.edgeTo[e] as number;
-      const ends = [from, to];
       const flow = massFlow[e] as number;
       // Mass rows: node `to` gains +flow, node `from` loses it.
       for (let row = 0; row < 2; row++) {
-        const rowNode = ends[row] as number;
+        const rowNode = row === 0 ? from : to;
         const rowUnknown = model.unknownIndex[rowNode] as number;
         if (rowUnknown < 0) continue;
         const sign = row === 0 ? -1 : 1;
@@ -430,7 +429,7 @@ export function evaluateSystem(
       }
       // Energy row of the downstream node: |m| (T_arrive - T_d).
       const downstreamRow = flow > 0 ? 1 : 0;
-      const downstream = ends[downstreamRow] as number;
+      const downstream = downstreamRow === 0 ? from : to;
       const rowUnknown = model.unknownIndex[downstream] as number;
       if (rowUnknown < 0) continue;
       const tDown = (x[2 * rowUnknown + 1] as number) * tS;

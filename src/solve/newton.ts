@@ -2,13 +2,15 @@
  * Damped Newton iteration on a network system: sparse Jacobian, step limits that keep pressures
  * and temperatures positive, and a backtracking line search on the scaled residual norm.
  */
+
+import { reuseOfFactorsPays, solveWithFrozenFactors } from "./frozen-factor-gmres.js";
 import {
   evaluateSystem,
   type NetworkSystem,
   networkThroughput,
   type SystemEvaluation,
 } from "./network-system.js";
-import { factorBlockMatrix, solveFactored } from "./sparse-block-lu.js";
+import { type BlockLuFactorization, factorBlockMatrix, solveFactored } from "./sparse-block-lu.js";
 
 /** Options of {@link newtonSolve}. */
 export interface NewtonOptions {
@@ -57,6 +59,56 @@ export const TEMPERATURE_TOLERANCE = 1e-6;
 /** Armijo constant and smallest step of the line search. */
 const SUFFICIENT_DECREASE = 1e-4;
 const MIN_STEP = 1e-6;
+
+/**
+ * Where reusing factors pays (large meshed networks, `reuseOfFactorsPays`), a Newton step is first solved by GMRES preconditioned with the
+ * factors of an earlier Jacobian (src/solve/frozen-factor-gmres.ts) and the Jacobian is factored
+ * again only when GMRES does not reach the step's tolerance in FROZEN_STEP_ITERATIONS; small
+ * networks and trees factor every Jacobian (it costs less than the edge evaluations there) and
+ * solve each step exactly.
+ *
+ * The step's tolerance (relative residual of J s = -R) follows Eisenstat and Walker's second
+ * choice, eta = 0.9 (|R_k| / |R_k-1|)^2, within [1e-10, 1e-2]: a loose step while far from the
+ * solution, where Newton's model is poor anyway, and an exact one (1e-10) as the residual falls,
+ * which keeps Newton's fast final convergence. Convergence is judged on the residuals alone, so
+ * the solution does not depend on it. Source: S. C. Eisenstat and H. F. Walker, "Choosing the
+ * forcing terms in an inexact Newton method", SIAM J. Sci. Comput. 17 (1996) 16-32, choice 2
+ * (there with a safeguard; here the ceiling of 1e-2 plays its part).
+ */
+const FROZEN_STEP_ITERATIONS = 12;
+const STEP_TOLERANCE_CEILING = 1e-3;
+const STEP_TOLERANCE_FLOOR = 1e-10;
+
+/** Kept factors of an earlier Jacobian and the step tolerance of the next solve. */
+interface StepSolver {
+  factors: BlockLuFactorization | undefined;
+  tolerance: number;
+}
+
+/**
+ * The Newton step -J^-1 R: with the kept factors of an earlier Jacobian when they still do (large
+ * networks), otherwise by factoring J (and keeping those factors for the next steps).
+ */
+function newtonStep(
+  system: NetworkSystem,
+  jacobian: Float64Array,
+  rhs: Float64Array,
+  solver: StepSolver,
+): Float64Array {
+  if (solver.factors !== undefined) {
+    const frozen = solveWithFrozenFactors(
+      jacobian,
+      solver.factors,
+      rhs,
+      solver.tolerance,
+      FROZEN_STEP_ITERATIONS,
+    );
+    if (frozen.x !== undefined) return frozen.x;
+  }
+  const factors = factorBlockMatrix(system.structure, jacobian);
+  if (reuseOfFactorsPays(system.structure)) solver.factors = factors;
+  return solveFactored(factors, rhs);
+}
 
 function largest(residual: Float64Array, offset: number): number {
   let value = 0;
@@ -130,6 +182,8 @@ export function newtonSolve(
   let evaluation = evaluateSystem(system, x, true);
   let best = { x, evaluation, norm: merit(evaluation, system.temperatureScale) };
   let iterations = 0;
+  const solver: StepSolver = { factors: undefined, tolerance: STEP_TOLERANCE_CEILING };
+  let previousNorm = Number.NaN;
   const outcome = (converged: boolean, stopReason?: NewtonOutcome["stopReason"]): NewtonOutcome => {
     const chosen = converged ? { x, evaluation } : best;
     const result: NewtonOutcome = {
@@ -173,9 +227,14 @@ export function newtonSolve(
     iterations++;
 
     const jacobian = evaluation.jacobian as Float64Array;
-    const factorization = factorBlockMatrix(system.structure, jacobian);
     const rhs = evaluation.residual.map((value) => -value);
-    const step = solveFactored(factorization, rhs);
+    const residualNorm = Math.sqrt(merit(evaluation, system.temperatureScale));
+    if (Number.isFinite(previousNorm) && previousNorm > 0) {
+      const eta = 0.9 * (residualNorm / previousNorm) ** 2;
+      solver.tolerance = Math.min(STEP_TOLERANCE_CEILING, Math.max(STEP_TOLERANCE_FLOOR, eta));
+    }
+    previousNorm = residualNorm;
+    const step = newtonStep(system, jacobian, rhs, solver);
     if (!allFinite(step)) return outcome(false, "non-finite");
 
     // Step limits. Pressures are strongly coupled: the whole step is shortened so that none
