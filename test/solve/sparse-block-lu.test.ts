@@ -276,6 +276,8 @@ describe("sparse solve of network Jacobians against a dense solve", () => {
     "overload-diagnosed.json",
     "overloaded-tee-near-capacity.json",
     "tiny-huge-33-iterations.json",
+    // Open defect B3: junctions behind a DN 6 restriction at 0.37 of the supply pressure.
+    "offsets-far-below-supply-736.json",
   ]);
   for (const [name, document] of networks) {
     it(`agrees with a dense solve on ${name} (1e-12 relative, or in backward error if ill-conditioned)`, () => {
