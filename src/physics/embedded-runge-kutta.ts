@@ -1,0 +1,263 @@
+/**
+ * An adaptive, error-controlled integrator of y' = f(x, y): the Dormand-Prince 5(4) embedded
+ * Runge-Kutta pair, for the pipe models that integrate along the pipe.
+ *
+ * Why our own and not a package: the npm registry's maintained ODE package, `odex` (2.0.4, Hairer's
+ * Gragg-Bulirsch-Stoer extrapolation), takes a right-hand side that returns a new array on every
+ * call and allocates per step; a pipe model here runs this integration once per pipe per Newton
+ * evaluation, so the right-hand side writes into a typed array and nothing is allocated per step.
+ * The pipe models also need to stop a step that would cross a singular point (the sonic point,
+ * where the right-hand side cannot be evaluated) and to integrate sensitivities with the same
+ * steps as the state, with the error control on the state only; both are a few lines here.
+ *
+ * Method: J. R. Dormand and P. J. Prince, "A family of embedded Runge-Kutta formulae", Journal of
+ * Computational and Applied Mathematics 6 (1980) 19-26 (the RK5(4)7M coefficients); step-size
+ * control as in E. Hairer, S. P. Norsett and G. Wanner, Solving Ordinary Differential Equations I,
+ * 2nd ed., Springer 1993, section II.4 (safety factor 0.9, step growth between 0.2 and 5).
+ * @module
+ */
+
+/**
+ * Right-hand side: write y'(x) into `slope`; return false when f cannot be evaluated at (x, y)
+ * (outside its domain), and the step is then retried shorter.
+ */
+export type RightHandSide = (x: number, y: Float64Array, slope: Float64Array) => boolean;
+
+/** How an integration ended. */
+export type IntegrationEnd = "reached" | "stopped" | "step-too-small" | "too-many-steps";
+
+// Dormand-Prince 5(4) tableau.
+const C2 = 1 / 5;
+const C3 = 3 / 10;
+const C4 = 4 / 5;
+const C5 = 8 / 9;
+const A21 = 1 / 5;
+const A31 = 3 / 40;
+const A32 = 9 / 40;
+const A41 = 44 / 45;
+const A42 = -56 / 15;
+const A43 = 32 / 9;
+const A51 = 19372 / 6561;
+const A52 = -25360 / 2187;
+const A53 = 64448 / 6561;
+const A54 = -212 / 729;
+const A61 = 9017 / 3168;
+const A62 = -355 / 33;
+const A63 = 46732 / 5247;
+const A64 = 49 / 176;
+const A65 = -5103 / 18656;
+const A71 = 35 / 384;
+const A73 = 500 / 1113;
+const A74 = 125 / 192;
+const A75 = -2187 / 6784;
+const A76 = 11 / 84;
+// Error coefficients: fifth-order weights minus the embedded fourth-order ones.
+const E1 = 71 / 57600;
+const E3 = -71 / 16695;
+const E4 = 71 / 1920;
+const E5 = -17253 / 339200;
+const E6 = 22 / 525;
+const E7 = -1 / 40;
+
+/**
+ * A reusable Dormand-Prince 5(4) integrator for a system of fixed dimension. All work arrays are
+ * allocated once, in the constructor.
+ */
+export class DormandPrinceIntegrator {
+  readonly dimension: number;
+  /** Number of leading components that the error control looks at (the rest ride along). */
+  controlled: number;
+  /** Error scale per controlled component: the error allowed is tolerance * max(scale, |y|). */
+  readonly scale: Float64Array;
+  /** Relative tolerance of the local error per step [-]. */
+  tolerance = 1e-10;
+  /** Largest number of steps (accepted and rejected). */
+  maxSteps = 100000;
+  /** Accepted and rejected steps and right-hand-side evaluations of the last run. */
+  acceptedSteps = 0;
+  rejectedSteps = 0;
+  evaluations = 0;
+  /** Position and state at the end of the last run. */
+  x = 0;
+  readonly y: Float64Array;
+  /** Position and state before the last accepted step. */
+  previousX = 0;
+  readonly previousY: Float64Array;
+  /** Slope at the end of the last run (first-same-as-last). */
+  readonly slope: Float64Array;
+  private readonly k2: Float64Array;
+  private readonly k3: Float64Array;
+  private readonly k4: Float64Array;
+  private readonly k5: Float64Array;
+  private readonly k6: Float64Array;
+  private readonly k7: Float64Array;
+  private readonly stage: Float64Array;
+  private readonly next: Float64Array;
+
+  constructor(dimension: number, controlled = dimension) {
+    this.dimension = dimension;
+    this.controlled = controlled;
+    this.scale = new Float64Array(dimension).fill(1);
+    this.y = new Float64Array(dimension);
+    this.previousY = new Float64Array(dimension);
+    this.slope = new Float64Array(dimension);
+    this.k2 = new Float64Array(dimension);
+    this.k3 = new Float64Array(dimension);
+    this.k4 = new Float64Array(dimension);
+    this.k5 = new Float64Array(dimension);
+    this.k6 = new Float64Array(dimension);
+    this.k7 = new Float64Array(dimension);
+    this.stage = new Float64Array(dimension);
+    this.next = new Float64Array(dimension);
+  }
+
+  /**
+   * Integrate from (x0, y0) to xEnd > x0. After each accepted step `accept(x, y)` is called; when
+   * it returns false the run ends there ("stopped"). A step whose right-hand side cannot be
+   * evaluated is retried at a quarter of its length; below `minStep` the run ends
+   * ("step-too-small") at the last accepted point.
+   *
+   * @param firstStep - a first step length, or 0 to choose one from the slope and the scales
+   */
+  integrate(
+    f: RightHandSide,
+    x0: number,
+    y0: ArrayLike<number>,
+    xEnd: number,
+    firstStep: number,
+    minStep: number,
+    accept: (x: number, y: Float64Array) => boolean,
+  ): IntegrationEnd {
+    const n = this.dimension;
+    const { y, slope, k3, k4, k5, k6, k7, next, scale } = this;
+    for (let i = 0; i < n; i++) y[i] = y0[i] as number;
+    this.acceptedSteps = 0;
+    this.rejectedSteps = 0;
+    this.evaluations = 1;
+    this.x = x0;
+    this.previousX = x0;
+    this.previousY.set(y);
+    if (!f(x0, y, slope)) return "step-too-small";
+    const span = xEnd - x0;
+    let h = firstStep;
+    if (!(h > 0)) {
+      // A first step that changes no controlled component by more than 1e-2 of its scale.
+      let rate = 0;
+      for (let i = 0; i < this.controlled; i++) {
+        const s = Math.max(scale[i] as number, Math.abs(y[i] as number));
+        rate = Math.max(rate, Math.abs(slope[i] as number) / s);
+      }
+      h = rate > 0 ? 1e-2 / rate : span;
+    }
+    h = Math.min(h, span);
+    let x = x0;
+    let lastRejected = false;
+    for (let step = 0; step < this.maxSteps; step++) {
+      if (x + h > xEnd || xEnd - (x + h) < 1e-12 * span) h = xEnd - x;
+      const ok = this.trialStep(f, x, h);
+      if (!ok) {
+        this.rejectedSteps++;
+        h *= 0.25;
+        lastRejected = true;
+        if (h < minStep) return "step-too-small";
+        continue;
+      }
+      // Error norm: largest error over tolerance times scale (the max norm).
+      let error = 0;
+      for (let i = 0; i < this.controlled; i++) {
+        const e =
+          h *
+          (E1 * (slope[i] as number) +
+            E3 * (k3[i] as number) +
+            E4 * (k4[i] as number) +
+            E5 * (k5[i] as number) +
+            E6 * (k6[i] as number) +
+            E7 * (k7[i] as number));
+        const s = Math.max(
+          scale[i] as number,
+          Math.abs(y[i] as number),
+          Math.abs(next[i] as number),
+        );
+        error = Math.max(error, Math.abs(e) / (this.tolerance * s));
+      }
+      if (!(error <= 1)) {
+        this.rejectedSteps++;
+        const factor = Number.isFinite(error) ? Math.max(0.2, 0.9 * error ** -0.2) : 0.2;
+        h *= factor;
+        lastRejected = true;
+        if (h < minStep) return "step-too-small";
+        continue;
+      }
+      this.previousX = x;
+      this.previousY.set(y);
+      x = x + h === xEnd || xEnd - (x + h) < 1e-12 * span ? xEnd : x + h;
+      y.set(next);
+      slope.set(k7);
+      this.x = x;
+      this.acceptedSteps++;
+      if (!accept(x, y)) return "stopped";
+      if (x >= xEnd) return "reached";
+      let factor = error > 0 ? 0.9 * error ** -0.2 : 5;
+      factor = Math.min(lastRejected ? 1 : 5, Math.max(0.2, factor));
+      lastRejected = false;
+      h *= factor;
+    }
+    return "too-many-steps";
+  }
+
+  /** One step of length h from (x, y) with y'(x) in `slope`: the 5th-order result in `next`. */
+  private trialStep(f: RightHandSide, x: number, h: number): boolean {
+    const n = this.dimension;
+    const { y, slope: k1, k2, k3, k4, k5, k6, k7, stage, next } = this;
+    for (let i = 0; i < n; i++) stage[i] = (y[i] as number) + h * A21 * (k1[i] as number);
+    this.evaluations++;
+    if (!f(x + C2 * h, stage, k2)) return false;
+    for (let i = 0; i < n; i++) {
+      stage[i] = (y[i] as number) + h * (A31 * (k1[i] as number) + A32 * (k2[i] as number));
+    }
+    this.evaluations++;
+    if (!f(x + C3 * h, stage, k3)) return false;
+    for (let i = 0; i < n; i++) {
+      stage[i] =
+        (y[i] as number) +
+        h * (A41 * (k1[i] as number) + A42 * (k2[i] as number) + A43 * (k3[i] as number));
+    }
+    this.evaluations++;
+    if (!f(x + C4 * h, stage, k4)) return false;
+    for (let i = 0; i < n; i++) {
+      stage[i] =
+        (y[i] as number) +
+        h *
+          (A51 * (k1[i] as number) +
+            A52 * (k2[i] as number) +
+            A53 * (k3[i] as number) +
+            A54 * (k4[i] as number));
+    }
+    this.evaluations++;
+    if (!f(x + C5 * h, stage, k5)) return false;
+    for (let i = 0; i < n; i++) {
+      stage[i] =
+        (y[i] as number) +
+        h *
+          (A61 * (k1[i] as number) +
+            A62 * (k2[i] as number) +
+            A63 * (k3[i] as number) +
+            A64 * (k4[i] as number) +
+            A65 * (k5[i] as number));
+    }
+    this.evaluations++;
+    if (!f(x + h, stage, k6)) return false;
+    for (let i = 0; i < n; i++) {
+      next[i] =
+        (y[i] as number) +
+        h *
+          (A71 * (k1[i] as number) +
+            A73 * (k3[i] as number) +
+            A74 * (k4[i] as number) +
+            A75 * (k5[i] as number) +
+            A76 * (k6[i] as number));
+    }
+    this.evaluations++;
+    return f(x + h, next, k7);
+  }
+}
