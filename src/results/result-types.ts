@@ -69,7 +69,7 @@ export interface EdgeResult {
   from: string;
   to: string;
   /** Pipe model used; "adiabatic" for every component (no heat exchange). */
-  model: "adiabatic" | "isothermal";
+  model: "adiabatic" | "isothermal" | "heat-transfer";
   /** [kg/s], positive from `from` to `to`. */
   massFlow: number;
   choked: boolean;

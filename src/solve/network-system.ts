@@ -112,6 +112,7 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
     specificGasConstant: gasData.specificGasConstant,
     heatCapacityRatio: gasData.heatCapacityRatio,
     viscosity: (temperature: number) => gasViscosity(gasData, temperature),
+    gas: gasData,
   };
   const elements: EdgeElement[] = doc.edges.map(
     (edge): EdgeElement =>
