@@ -15,6 +15,7 @@ import type {
   GasInput,
   InputNote,
   NetworkDocument,
+  PipeEdgeInput,
   QuantityInput,
   SolverSettings,
 } from "./document-types.js";
@@ -256,6 +257,14 @@ function notIssue(path: string, schema: unknown): InputIssue {
       message: 'give either "roughness" or "frictionFactor", not both',
     };
   }
+  if (required.includes("heatTransferCoefficient") && required.includes("heatTransferPerLength")) {
+    return {
+      code: "schema",
+      path,
+      message:
+        'give either "heatTransferCoefficient" (per wall area) or "heatTransferPerLength", not both',
+    };
+  }
   if (required.includes("demand")) {
     return {
       code: "schema",
@@ -425,8 +434,9 @@ function convertDocument(doc: NetworkDocument): ReadResult {
 
   const nodes: CheckedNode[] = doc.nodes.map((node, index) => readNode(node, index, reader));
   const edges: CheckedEdge[] = doc.edges.map((edge, index) =>
-    readEdge(edge, index, settings.pipeModel, reader),
+    readEdge(edge, index, settings.pipeModel, ambientTemperature, reader),
   );
+  checkElevations(nodes, edges, reader);
 
   if (reader.issues.length > 0 || gas === undefined) {
     return { ok: false, issues: sortIssues(reader.issues) };
@@ -643,6 +653,19 @@ export const INPUT_RANGES = Object.freeze({
   molarMass: { low: 1e-3, high: 1, unit: "kg/mol", what: "molar masses of gases" },
   viscosity: { low: 1e-7, high: 1e-3, unit: "Pa s", what: "viscosities of gases" },
   sutherlandConstant: { low: 0, high: 1e4, unit: "K", what: "Sutherland constants" },
+  elevation: { low: -2e4, high: 2e4, unit: "m", what: "elevations of gas networks" },
+  heatTransferCoefficient: {
+    low: 0,
+    high: 1e5,
+    unit: "W/(m2 K)",
+    what: "overall heat-transfer coefficients of pipes",
+  },
+  heatTransferPerLength: {
+    low: 0,
+    high: 1e6,
+    unit: "W/(m K)",
+    what: "overall heat-transfer coefficients of pipes per unit length",
+  },
 } satisfies Record<string, InputRange>);
 
 /**
@@ -683,7 +706,15 @@ function readNode(
   reader: Reader,
 ): CheckedNode {
   const path = jsonPointer("nodes", index);
-  const checked: CheckedNode = { id: node.id, kind: node.kind, demand: 0 };
+  const checked: CheckedNode = { id: node.id, kind: node.kind, demand: 0, elevation: 0 };
+  const elevation = inRange(
+    reader,
+    reader.quantity(node.elevation, "length", `${path}/elevation`),
+    node.elevation,
+    `${path}/elevation`,
+    INPUT_RANGES.elevation,
+  );
+  if (elevation !== undefined) checked.elevation = elevation;
   if (node.kind === "reservoir") {
     const pressure = inRange(
       reader,
@@ -735,10 +766,89 @@ function readNode(
   return checked;
 }
 
+/**
+ * Pipes between nodes at different elevations must use the heat-transfer model: the closed-form
+ * adiabatic and isothermal models have no gravity term (docs/model.md, "Elevation").
+ */
+function checkElevations(nodes: CheckedNode[], edges: CheckedEdge[], reader: Reader): void {
+  const elevationOf = new Map(nodes.map((node) => [node.id, node.elevation]));
+  edges.forEach((edge, index) => {
+    if (edge.kind !== "pipe" || edge.model === "heat-transfer") return;
+    const from = elevationOf.get(edge.from);
+    const to = elevationOf.get(edge.to);
+    if (from === undefined || to === undefined || from === to) return;
+    reader.fail({
+      code: "value",
+      path: `${jsonPointer("edges", index)}/model`,
+      value: edge.model,
+      message: `pipe ${edge.id} joins nodes ${Number(Math.abs(to - from).toPrecision(4))} m apart in elevation, and the ${edge.model} model has no gravity term; use "model": "heat-transfer"`,
+    });
+  });
+}
+
+/** U' [W/(m K)] and the surrounding temperature of a heat-transfer pipe, or an issue. */
+function readHeatExchange(
+  edge: PipeEdgeInput,
+  path: string,
+  model: CheckedEdge["model"],
+  diameter: number,
+  ambientTemperature: number,
+  reader: Reader,
+): { heatTransferPerLength: number; surroundingTemperature: number } | undefined {
+  const fields = ["heatTransferCoefficient", "heatTransferPerLength", "surroundingTemperature"];
+  if (model !== "heat-transfer") {
+    for (const field of fields) {
+      const value = edge[field as keyof PipeEdgeInput];
+      if (value === undefined) continue;
+      reader.fail({
+        code: "value",
+        path: `${path}/${field}`,
+        value: value as QuantityInput,
+        message: `applies to the heat-transfer model only; this pipe uses the ${model} model (set "model": "heat-transfer")`,
+      });
+    }
+    return undefined;
+  }
+  const perArea = inRange(
+    reader,
+    reader.quantity(
+      edge.heatTransferCoefficient,
+      "heatTransferCoefficient",
+      `${path}/heatTransferCoefficient`,
+    ),
+    edge.heatTransferCoefficient,
+    `${path}/heatTransferCoefficient`,
+    INPUT_RANGES.heatTransferCoefficient,
+  );
+  const perLength = inRange(
+    reader,
+    reader.quantity(
+      edge.heatTransferPerLength,
+      "heatTransferPerLength",
+      `${path}/heatTransferPerLength`,
+    ),
+    edge.heatTransferPerLength,
+    `${path}/heatTransferPerLength`,
+    INPUT_RANGES.heatTransferPerLength,
+  );
+  const surrounding = inRange(
+    reader,
+    reader.quantity(edge.surroundingTemperature, "temperature", `${path}/surroundingTemperature`),
+    edge.surroundingTemperature,
+    `${path}/surroundingTemperature`,
+    INPUT_RANGES.temperature,
+  );
+  return {
+    heatTransferPerLength: perLength ?? (perArea ?? 0) * Math.PI * diameter,
+    surroundingTemperature: surrounding ?? ambientTemperature,
+  };
+}
+
 function readEdge(
   edge: NetworkDocument["edges"][number],
   index: number,
   defaultModel: CheckedEdge["model"],
+  ambientTemperature: number,
   reader: Reader,
 ): CheckedEdge {
   const path = jsonPointer("edges", index);
@@ -767,6 +877,18 @@ function readEdge(
     model: edge.model ?? defaultModel,
   };
   if (extras.catalog !== undefined) checked.catalog = extras.catalog;
+  const exchange = readHeatExchange(
+    edge,
+    path,
+    checked.model,
+    diameter,
+    ambientTemperature,
+    reader,
+  );
+  if (exchange !== undefined && checked.kind === "pipe") {
+    checked.heatTransferPerLength = exchange.heatTransferPerLength;
+    checked.surroundingTemperature = exchange.surroundingTemperature;
+  }
   if (edge.frictionFactor !== undefined) {
     checked.frictionFactor = edge.frictionFactor;
   } else {

@@ -12,6 +12,7 @@ import {
   componentSquaredLawResistance,
   evaluateComponentFlow,
 } from "./components/component-flow.js";
+import { zeroFlowOutletPressure } from "./heat-transfer-pipe.js";
 import { endStatesOf, outletForMassFlow, type PipeEndState } from "./pipe.js";
 import {
   evaluatePipeFlow,
@@ -27,6 +28,34 @@ export interface PipeElement extends PipeGeometry {
 
 /** Every edge kind, as the solver sees it (SI values): a pipe or a component. */
 export type EdgeElement = PipeElement | ComponentElement;
+
+/**
+ * Which way an edge flows: true when from its `from` end to its `to` end. The end at the higher
+ * pressure is upstream, except on a pipe that rises or falls: there the `from` end is upstream
+ * when the `to` end's pressure is below the column's zero-flow pressure (the hydrostatic head;
+ * see zeroFlowOutletPressure in heat-transfer-pipe.ts, taken from the `from` end's state).
+ */
+export function flowsForward(
+  element: EdgeElement,
+  gas: PipeGas,
+  pressureFrom: number,
+  pressureTo: number,
+  temperatureFrom: number,
+  scratch: PipeFlowEvaluation,
+): boolean {
+  if (element.kind !== "pipe" || !element.rise) return pressureFrom >= pressureTo;
+  const state = scratch.thermo;
+  const zeroFlow = zeroFlowOutletPressure(
+    gas.gas,
+    pressureFrom,
+    temperatureFrom,
+    element.rise,
+    element.heatTransferPerLength ?? 0,
+    element.surroundingTemperature ?? temperatureFrom,
+    state,
+  );
+  return zeroFlow >= pressureTo;
+}
 
 /**
  * Flow through an edge from its upstream end (stagnation state p0, T0) to its downstream end at
@@ -68,6 +97,7 @@ export function evaluateEdgeFlow(
     downstreamPressure,
     out,
     needCapacity,
+    forward,
   );
 }
 
@@ -104,6 +134,7 @@ export function exitPressureForFlow(
   upstreamTemperature: number,
   massFlow: number,
   scratch: PipeFlowEvaluation,
+  forward = true,
 ): number {
   if (element.kind !== "pipe") return Number.NaN;
   const passes = outletForMassFlow(
@@ -113,6 +144,7 @@ export function exitPressureForFlow(
     upstreamTemperature,
     massFlow,
     scratch,
+    forward,
   );
   return passes ? scratch.outletPressure : Number.POSITIVE_INFINITY;
 }

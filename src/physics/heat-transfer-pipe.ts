@@ -950,7 +950,10 @@ function setCreeping(
   const h0 = plenum.enthalpy;
   const soundSpeed = plenum.soundSpeed;
   const conductance = (density * pipe.diameter * pipe.diameter * area) / (32 * mu * pipe.length);
-  const drive = zeroFlowPressure - pd;
+  // A pd above the zero-flow pressure means the flow would run the other way (the caller picks
+  // the upstream end by flowsForward in edge-flow.ts); in the narrow band where the two ends'
+  // columns disagree, the flow is held at the creeping band's edge, of order 1e-10 of a flow.
+  const drive = Math.max(zeroFlowPressure - pd, -CREEPING_PRESSURE_RATIO * p0);
   const massFlow = conductance * drive;
   const ratio = zeroFlowPressure / p0;
   out.choked = false;

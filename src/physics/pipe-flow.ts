@@ -22,6 +22,7 @@
  */
 
 import type { Gas } from "../gas/gas-types.js";
+import { emptyThermoState, type ThermoState } from "../gas/thermo.js";
 import { fannoParameter, machFromFannoParameter } from "./fanno.js";
 import { darcyFrictionWithSlope, type FrictionWithSlope } from "./friction.js";
 import { evaluateHeatTransferPipe, type HeatTransferScratch } from "./heat-transfer-pipe.js";
@@ -103,6 +104,8 @@ export class PipeFlowEvaluation {
   outletTemperature = 0;
   /** Heat-transfer model's work space (made on first use). */
   heatTransfer: HeatTransferScratch | undefined = undefined;
+  /** A thermodynamic state record for callers (the orientation of a rising pipe). */
+  readonly thermo: ThermoState = emptyThermoState();
   /** Scratch of the friction relation (kept here so the hot path allocates nothing). */
   readonly friction: FrictionScratch = {
     value: 0,

@@ -23,7 +23,7 @@
  */
 import { gasViscosity } from "../gas/gas.js";
 import type { NetworkModel } from "../model/build-network.js";
-import { type EdgeElement, evaluateEdgeFlow } from "../physics/edge-flow.js";
+import { type EdgeElement, evaluateEdgeFlow, flowsForward } from "../physics/edge-flow.js";
 import { PipeFlowEvaluation, type PipeGas } from "../physics/pipe-flow.js";
 import type { BlockLuStructure } from "./sparse-block-lu.js";
 import { analyzeBlockPattern } from "./sparse-block-lu.js";
@@ -114,6 +114,8 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
     viscosity: (temperature: number) => gasViscosity(gasData, temperature),
     gas: gasData,
   };
+  const elevations = new Map(doc.nodes.map((node) => [node.id, node.elevation]));
+  const elevationOf = (id: string): number => elevations.get(id) ?? 0;
   const elements: EdgeElement[] = doc.edges.map(
     (edge): EdgeElement =>
       edge.kind === "pipe"
@@ -125,6 +127,9 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
             fixedFrictionFactor: edge.frictionFactor ?? Number.NaN,
             minorLoss: edge.minorLoss,
             model: edge.model,
+            heatTransferPerLength: edge.heatTransferPerLength ?? 0,
+            surroundingTemperature: edge.surroundingTemperature ?? doc.ambientTemperature,
+            rise: elevationOf(edge.to) - elevationOf(edge.from),
           }
         : { ...edge.component },
   );
@@ -240,19 +245,28 @@ export function evaluateSystem(
     const to = model.edgeTo[e] as number;
     const pFrom = nodePressure(system, x, from);
     const pTo = nodePressure(system, x, to);
-    const forward = pFrom >= pTo;
+    const element = system.elements[e] as EdgeElement;
+    const evaluation = system.evaluations[e] as PipeFlowEvaluation;
+    const forward = flowsForward(
+      element,
+      system.gas,
+      pFrom,
+      pTo,
+      nodeTemperature(system, x, from),
+      evaluation,
+    );
     const upstream = forward ? from : to;
     const pUp = forward ? pFrom : pTo;
     const pDown = forward ? pTo : pFrom;
     const tUp = nodeTemperature(system, x, upstream);
     const result = evaluateEdgeFlow(
-      system.elements[e] as EdgeElement,
+      element,
       system.gas,
       pUp,
       tUp,
       pDown,
       forward,
-      system.evaluations[e] as PipeFlowEvaluation,
+      evaluation,
       false,
     );
     const sign = forward ? 1 : -1;

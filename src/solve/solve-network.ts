@@ -6,7 +6,7 @@ import type { CheckedDocument } from "../input/document-types.js";
 import { InputError } from "../input/issues.js";
 import { checkedDocumentOrThrow } from "../input/read-document.js";
 import { buildNetwork, type NetworkModel } from "../model/build-network.js";
-import { type EdgeElement, evaluateEdgeFlow } from "../physics/edge-flow.js";
+import { type EdgeElement, evaluateEdgeFlow, flowsForward } from "../physics/edge-flow.js";
 import { PipeFlowEvaluation } from "../physics/pipe-flow.js";
 import { designWarnings, resultsAtState } from "../results/build-results.js";
 import type { NetworkResult, NoSolutionDiagnosis, SolverWarning } from "../results/result-types.js";
@@ -293,7 +293,14 @@ function diagnose(
       const to = system.model.edgeTo[e] as number;
       const pFrom = nodePressure(at, rescue.outcome.x, from);
       const pTo = nodePressure(at, rescue.outcome.x, to);
-      const forward = pFrom >= pTo;
+      const forward = flowsForward(
+        system.elements[e] as EdgeElement,
+        system.gas,
+        pFrom,
+        pTo,
+        nodeTemperature(at, rescue.outcome.x, from),
+        scratch,
+      );
       const edgeState = evaluateEdgeFlow(
         system.elements[e] as EdgeElement,
         system.gas,
