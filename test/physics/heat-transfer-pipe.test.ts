@@ -1,3 +1,4 @@
+import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { gasPreset, type Pipe, pipeFlow, pipeOutlet } from "../../src/index.js";
 import { INTEGRATION_TOLERANCE, STANDARD_GRAVITY } from "../../src/physics/heat-transfer-pipe.js";
@@ -245,6 +246,64 @@ describe("derivatives of the heat-transfer pipe", () => {
         const scale = Math.max(Math.abs(difference), Math.abs(analytic), 1e-12);
         expect(Math.abs(analytic - difference) / scale).toBeLessThan(base.choked ? 1e-2 : 1e-3);
       }
+    });
+  }
+});
+
+describe("heat-transfer pipe against an independent integration (scipy solve_ivp)", () => {
+  // test/fixtures/heat-transfer/generate_heat_transfer_pipe.py: the same equations written for a
+  // perfect gas and integrated by scipy's DOP853 at rtol 1e-12 (scipy version in the JSON).
+  const fixture = JSON.parse(
+    readFileSync(
+      new URL("../fixtures/heat-transfer/heat-transfer-pipe.json", import.meta.url),
+      "utf8",
+    ),
+  ) as {
+    source: string;
+    gasConstant: number;
+    cases: {
+      name: string;
+      input: Record<string, number>;
+      expected: Record<string, number>;
+    }[];
+  };
+  it("uses the same gas constant as machnet's air", () => {
+    expect(fixture.gasConstant / air.specificGasConstant).toBeCloseTo(1, 12);
+  });
+  for (const { name, input, expected } of fixture.cases) {
+    it(`matches ${fixture.source} with friction, heat and elevation (${name})`, () => {
+      const i = input as Record<string, number>;
+      const result = pipeOutlet(
+        air,
+        {
+          length: i.length as number,
+          diameter: i.diameter as number,
+          frictionFactor: i.frictionFactor as number,
+          minorLoss: i.minorLoss as number,
+          model: "heat-transfer",
+          heatTransferPerLength: i.heatTransferPerLength as number,
+          surroundingTemperature: i.surroundingTemperature as number,
+          rise: i.rise as number,
+        },
+        { pressure: i.upstreamPressure as number, temperature: i.upstreamTemperature as number },
+        i.massFlow as number,
+      );
+      expect(result.ok).toBe(true);
+      if (!result.ok) return;
+      const flow = result.flow;
+      const e = expected as Record<string, number>;
+      const drop = (e.inletPressure as number) - (e.outletPressure as number);
+      // Both integrations hold about 1e-10 of the drop per step (scipy 1e-12): 1e-8 of the drop
+      // leaves room for the few hundred steps of ours.
+      expect(Math.abs(flow.inlet.pressure - (e.inletPressure as number)) / drop).toBeLessThan(
+        1e-10,
+      );
+      expect(Math.abs(flow.outlet.pressure - (e.outletPressure as number)) / drop).toBeLessThan(
+        1e-8,
+      );
+      expect(flow.outlet.temperature).toBeCloseTo(e.outletTemperature as number, 6);
+      expect(flow.heatFlow / (e.heatFlow as number)).toBeCloseTo(1, 8);
+      expect(flow.outlet.mach / (e.outletMach as number)).toBeCloseTo(1, 8);
     });
   }
 });
