@@ -93,6 +93,23 @@ export class DormandPrinceIntegrator {
   private readonly k7: Float64Array;
   private readonly stage: Float64Array;
   private readonly next: Float64Array;
+  private readonly n1: Float64Array;
+  private readonly error: Float64Array;
+  /**
+   * Components that relax towards an equilibrium at a common, large rate (a stiff linear decay,
+   * such as a gas temperature approaching its surroundings): 1 for those, 0 for the others. For
+   * them the step is taken in the Lawson (integrating-factor) form, so that the step length is
+   * set by accuracy, not by the explicit method's stability limit of about 3 / rate.
+   * Source: J. D. Lawson, "Generalized Runge-Kutta processes for stable systems with large
+   * Lipschitz constants", SIAM J. Numer. Anal. 4 (1967) 372-380.
+   */
+  readonly rate: Float64Array;
+  /** Equilibrium of each relaxing component in the current step (set by the step itself). */
+  readonly equilibrium: Float64Array;
+  /** The common relaxation rate lambda [1/unit of x] of the current step (0: none). */
+  relaxationRate = 0;
+  /** Called before each step with the current point: returns the relaxation rate to use. */
+  beforeStep: ((x: number, y: Float64Array) => number) | undefined = undefined;
 
   constructor(dimension: number, controlled = dimension) {
     this.dimension = dimension;
@@ -109,6 +126,10 @@ export class DormandPrinceIntegrator {
     this.k7 = new Float64Array(dimension);
     this.stage = new Float64Array(dimension);
     this.next = new Float64Array(dimension);
+    this.n1 = new Float64Array(dimension);
+    this.error = new Float64Array(dimension);
+    this.rate = new Float64Array(dimension);
+    this.equilibrium = new Float64Array(dimension);
   }
 
   /**
@@ -129,7 +150,7 @@ export class DormandPrinceIntegrator {
     accept: (x: number, y: Float64Array) => boolean,
   ): IntegrationEnd {
     const n = this.dimension;
-    const { y, slope, k3, k4, k5, k6, k7, next, scale } = this;
+    const { y, slope, k7, next, scale } = this;
     for (let i = 0; i < n; i++) y[i] = y0[i] as number;
     this.acceptedSteps = 0;
     this.rejectedSteps = 0;
@@ -154,6 +175,7 @@ export class DormandPrinceIntegrator {
     let lastRejected = false;
     for (let step = 0; step < this.maxSteps; step++) {
       if (x + h > xEnd || xEnd - (x + h) < 1e-12 * span) h = xEnd - x;
+      if (this.beforeStep !== undefined) this.relaxationRate = this.beforeStep(x, y);
       const ok = this.trialStep(f, x, h);
       if (!ok) {
         this.rejectedSteps++;
@@ -165,14 +187,7 @@ export class DormandPrinceIntegrator {
       // Error norm: largest error over tolerance times scale (the max norm).
       let error = 0;
       for (let i = 0; i < this.controlled; i++) {
-        const e =
-          h *
-          (E1 * (slope[i] as number) +
-            E3 * (k3[i] as number) +
-            E4 * (k4[i] as number) +
-            E5 * (k5[i] as number) +
-            E6 * (k6[i] as number) +
-            E7 * (k7[i] as number));
+        const e = this.error[i] as number;
         const s = Math.max(
           scale[i] as number,
           Math.abs(y[i] as number),
@@ -205,59 +220,136 @@ export class DormandPrinceIntegrator {
     return "too-many-steps";
   }
 
-  /** One step of length h from (x, y) with y'(x) in `slope`: the 5th-order result in `next`. */
+  /**
+   * One step of length h from (x, y) with y'(x) in `slope`: the 5th-order result in `next`, the
+   * error estimate in `error`. Relaxing components (see {@link relaxing}) take the Lawson form:
+   * u = y - e, u' = -lambda u + N, each stage and the result written with exp(-lambda c h) factors
+   * so that the decay is exact and only N is integrated by the Runge-Kutta weights.
+   */
   private trialStep(f: RightHandSide, x: number, h: number): boolean {
     const n = this.dimension;
-    const { y, slope: k1, k2, k3, k4, k5, k6, k7, stage, next } = this;
-    for (let i = 0; i < n; i++) stage[i] = (y[i] as number) + h * A21 * (k1[i] as number);
+    const { y, slope: k1, k2, k3, k4, k5, k6, k7, stage, next, rate, equilibrium } = this;
+    const lambda = this.relaxationRate;
+    // Decay factors exp(-lambda d h) for the stage offsets d = c_i - c_j that occur.
+    const decay = (d: number) => (lambda > 0 ? Math.exp(-lambda * d * h) : 1);
+    const e2 = decay(C2);
+    const e3 = decay(C3);
+    const e32 = decay(C3 - C2);
+    const e4 = decay(C4);
+    const e42 = decay(C4 - C2);
+    const e43 = decay(C4 - C3);
+    const e5 = decay(C5);
+    const e52 = decay(C5 - C2);
+    const e53 = decay(C5 - C3);
+    const e54 = decay(C5 - C4);
+    const e6 = decay(1);
+    const e62 = decay(1 - C2);
+    const e63 = decay(1 - C3);
+    const e64 = decay(1 - C4);
+    const e65 = decay(1 - C5);
+    const n1 = this.n1;
+    for (let i = 0; i < n; i++) {
+      // The equilibrium of this step: where the linear decay balances the slope at the step's
+      // start, e = y + y'/lambda. Then N = y' + lambda (y - e) is 0 at the start and only its
+      // change over the step is integrated by the weights (a Lawson step about a moving
+      // equilibrium: accurate also when lambda h is large, where the plain Lawson form is not).
+      if ((rate[i] as number) > 0 && lambda > 0) {
+        equilibrium[i] = (y[i] as number) + (k1[i] as number) / lambda;
+        n1[i] = 0;
+      } else {
+        n1[i] = k1[i] as number;
+      }
+    }
+    // Stage i from u_n and the N of earlier stages; on return k_i holds N at that stage.
+    const toN = (k: Float64Array): void => {
+      for (let i = 0; i < n; i++) {
+        if ((rate[i] as number) > 0) {
+          k[i] = (k[i] as number) + lambda * ((stage[i] as number) - (equilibrium[i] as number));
+        }
+      }
+    };
+    const base = (i: number, factor: number): number => {
+      const e = equilibrium[i] as number;
+      return (rate[i] as number) > 0 ? e + factor * ((y[i] as number) - e) : (y[i] as number);
+    };
+    const pick = (i: number, factor: number): number => ((rate[i] as number) > 0 ? factor : 1);
+    for (let i = 0; i < n; i++) {
+      stage[i] = base(i, e2) + h * A21 * pick(i, e2) * (n1[i] as number);
+    }
     this.evaluations++;
     if (!f(x + C2 * h, stage, k2)) return false;
+    toN(k2);
     for (let i = 0; i < n; i++) {
-      stage[i] = (y[i] as number) + h * (A31 * (k1[i] as number) + A32 * (k2[i] as number));
+      stage[i] =
+        base(i, e3) +
+        h * (A31 * pick(i, e3) * (n1[i] as number) + A32 * pick(i, e32) * (k2[i] as number));
     }
     this.evaluations++;
     if (!f(x + C3 * h, stage, k3)) return false;
+    toN(k3);
     for (let i = 0; i < n; i++) {
       stage[i] =
-        (y[i] as number) +
-        h * (A41 * (k1[i] as number) + A42 * (k2[i] as number) + A43 * (k3[i] as number));
+        base(i, e4) +
+        h *
+          (A41 * pick(i, e4) * (n1[i] as number) +
+            A42 * pick(i, e42) * (k2[i] as number) +
+            A43 * pick(i, e43) * (k3[i] as number));
     }
     this.evaluations++;
     if (!f(x + C4 * h, stage, k4)) return false;
+    toN(k4);
     for (let i = 0; i < n; i++) {
       stage[i] =
-        (y[i] as number) +
+        base(i, e5) +
         h *
-          (A51 * (k1[i] as number) +
-            A52 * (k2[i] as number) +
-            A53 * (k3[i] as number) +
-            A54 * (k4[i] as number));
+          (A51 * pick(i, e5) * (n1[i] as number) +
+            A52 * pick(i, e52) * (k2[i] as number) +
+            A53 * pick(i, e53) * (k3[i] as number) +
+            A54 * pick(i, e54) * (k4[i] as number));
     }
     this.evaluations++;
     if (!f(x + C5 * h, stage, k5)) return false;
+    toN(k5);
     for (let i = 0; i < n; i++) {
       stage[i] =
-        (y[i] as number) +
+        base(i, e6) +
         h *
-          (A61 * (k1[i] as number) +
-            A62 * (k2[i] as number) +
-            A63 * (k3[i] as number) +
-            A64 * (k4[i] as number) +
-            A65 * (k5[i] as number));
+          (A61 * pick(i, e6) * (n1[i] as number) +
+            A62 * pick(i, e62) * (k2[i] as number) +
+            A63 * pick(i, e63) * (k3[i] as number) +
+            A64 * pick(i, e64) * (k4[i] as number) +
+            A65 * pick(i, e65) * (k5[i] as number));
     }
     this.evaluations++;
     if (!f(x + h, stage, k6)) return false;
+    toN(k6);
+    // c6 = c7 = 1: the result's weights on stage 6 carry no decay.
     for (let i = 0; i < n; i++) {
       next[i] =
-        (y[i] as number) +
+        base(i, e6) +
         h *
-          (A71 * (k1[i] as number) +
-            A73 * (k3[i] as number) +
-            A74 * (k4[i] as number) +
-            A75 * (k5[i] as number) +
+          (A71 * pick(i, e6) * (n1[i] as number) +
+            A73 * pick(i, e63) * (k3[i] as number) +
+            A74 * pick(i, e64) * (k4[i] as number) +
+            A75 * pick(i, e65) * (k5[i] as number) +
             A76 * (k6[i] as number));
     }
     this.evaluations++;
-    return f(x + h, next, k7);
+    if (!f(x + h, next, k7)) return false;
+    const error = this.error;
+    for (let i = 0; i < this.controlled; i++) {
+      const n7 =
+        (k7[i] as number) +
+        ((rate[i] as number) > 0 ? lambda * ((next[i] as number) - (equilibrium[i] as number)) : 0);
+      error[i] =
+        h *
+        (E1 * pick(i, e6) * (n1[i] as number) +
+          E3 * pick(i, e63) * (k3[i] as number) +
+          E4 * pick(i, e64) * (k4[i] as number) +
+          E5 * pick(i, e65) * (k5[i] as number) +
+          E6 * (k6[i] as number) +
+          E7 * n7);
+    }
+    return true;
   }
 }

@@ -105,7 +105,7 @@ interface Entrance {
  * parameters of the current integration. Made once per pipe evaluation record, on first use.
  */
 export class HeatTransferScratch {
-  readonly integrator = new DormandPrinceIntegrator(DIMENSION, 3);
+  readonly integrator = new DormandPrinceIntegrator(DIMENSION, 2);
   readonly state: ThermoState = emptyThermoState();
   readonly entrance: Entrance = {
     pressure: 0,
@@ -202,6 +202,8 @@ export class HeatTransferScratch {
     out[1] = (a11 * b2 - a21 * b1) / det;
     out[2] = heat;
     this.lastMachSquared = machSquared;
+    // Rate at which T relaxes to Ts: the coefficient of (Ts - T) in dT/dx [1/m].
+    this.relaxation = (a11 * this.heatPerLength) / (flux * this.area * det);
     // Friction-parameter direction (analytic): d b1 / dX = -G v / (2 L), at fixed p and T.
     const frictionForcing = (-0.5 * flux * v) / this.length;
     this.frictionSlopeP = (frictionForcing * a22) / det;
@@ -210,6 +212,33 @@ export class HeatTransferScratch {
   }
   private frictionSlopeP = 0;
   private frictionSlopeT = 0;
+  /** Relaxation rate of the temperature at the last point evaluated [1/m]. */
+  private relaxation = 0;
+  private readonly relaxationSlope = new Float64Array(3);
+  /** Before each step: the relaxation rate at the step's start (Lawson form for T). */
+  readonly beforeStep = (_x: number, y: Float64Array): number => {
+    const ok = this.pointSlope(
+      this.inletPressure + (y[0] as number),
+      this.inletTemperature + (y[1] as number),
+      this.flux,
+      this.relaxationSlope,
+    );
+    return ok && this.relaxation > 0 ? this.relaxation : 0;
+  };
+  /**
+   * Stagnation enthalpy h + v^2/2 [J/kg] at (p, T) for flux G, with its partial derivatives in
+   * `enthalpySlope` (d/dp, d/dT, d/dG).
+   */
+  stagnationEnthalpy(pressure: number, temperature: number, flux: number): number {
+    const s = gasState(this.gas as Gas, pressure, temperature, this.state);
+    const v = flux / s.density;
+    const v2 = v * v;
+    this.enthalpySlope[0] = s.enthalpyPressureSlope - (v2 * s.densityPressureSlope) / s.density;
+    this.enthalpySlope[1] = s.specificHeatCp - (v2 * s.densityTemperatureSlope) / s.density;
+    this.enthalpySlope[2] = v2 / flux;
+    return s.enthalpy + 0.5 * v2;
+  }
+  readonly enthalpySlope = new Float64Array(3);
 
   private slopes(y: Float64Array, out: Float64Array): boolean {
     const p = this.inletPressure + (y[0] as number);
@@ -299,6 +328,16 @@ export class HeatTransferScratch {
     integrator.scale[1] = temperatureScale;
     integrator.scale[2] = Math.max(flux * this.area * cp * temperatureScale, 1e-300);
     integrator.tolerance = INTEGRATION_TOLERANCE;
+    // With heat exchange, T relaxes to Ts at the rate U'/(m cp (1 - M^2)): taken in the Lawson
+    // form (src/physics/embedded-runge-kutta.ts), so that a pipe many relaxation lengths long does
+    // not need steps of the relaxation length. Relaxing: T and its sensitivities (to 0).
+    const relaxing = this.heatPerLength > 0 ? 1 : 0;
+    integrator.rate.fill(0);
+    integrator.equilibrium.fill(0);
+    for (let d = 0; d <= DIRECTIONS; d++) integrator.rate[1 + 3 * d] = relaxing;
+    integrator.equilibrium[1] = this.surroundingTemperature - t1;
+    integrator.relaxationRate = 0;
+    integrator.beforeStep = relaxing ? this.beforeStep : undefined;
     const y0 = this.initial;
     y0.fill(0);
     // Sensitivities of (p, T, Q): d/dp1 starts as (1, 0, 0), d/dT1 as (0, 1, 0), d/dG and
@@ -322,11 +361,11 @@ export class HeatTransferScratch {
     const y = integrator.y;
     run.pressure = p1 + (y[0] as number);
     run.temperature = t1 + (y[1] as number);
-    run.heat = y[2] as number;
     run.mach = Math.sqrt(Math.max(1 - this.margin, 0));
     if (end === "reached") {
       run.sonic = false;
       run.sonicPosition = this.extrapolatedSonicPosition(length);
+      run.heat = this.heatOf(run.pressure, run.temperature, length);
       return run;
     }
     // Stopped near the sonic point, or a step beyond it could not be taken: extrapolate the
@@ -341,10 +380,27 @@ export class HeatTransferScratch {
       const prev = integrator.previousY;
       run.pressure += w * ((y[0] as number) - (prev[0] as number));
       run.temperature += w * ((y[1] as number) - (prev[1] as number));
-      run.heat += w * ((y[2] as number) - (prev[2] as number));
     }
     run.mach = 1;
+    run.heat = this.heatOf(
+      run.pressure,
+      run.temperature,
+      Math.min(Math.max(run.sonicPosition, 0), length),
+    );
     return run;
+  }
+
+  /**
+   * Heat into the gas from the inlet to a point at distance x with state (p, T), by the first law:
+   * Q = m (h + v^2/2 - (h1 + v1^2/2) + g s x). The integrated Q (component 2) is not used: under
+   * the Lawson steps its quadrature of a fast relaxation is not accurate, the end states are.
+   */
+  heatOf(pressure: number, temperature: number, position: number): number {
+    if (!(this.heatPerLength > 0)) return 0; // no heat exchange: exactly none
+    const inlet = this.stagnationEnthalpy(this.inletPressure, this.inletTemperature, this.flux);
+    const outlet = this.stagnationEnthalpy(pressure, temperature, this.flux);
+    const lift = STANDARD_GRAVITY * this.slope * position;
+    return this.flux * this.area * (outlet - inlet + lift);
   }
 
   /** Position where M = 1 from the last two accepted points: (1 - M^2)^2 linear in x. */
@@ -643,19 +699,35 @@ export function evaluateHeatTransferPipe(
   out.dMassFlowdUpstreamPressure = area * fluxPerP0;
   out.dMassFlowdUpstreamTemperature = area * fluxPerT0;
   out.dMassFlowdDownstreamPressure = area * fluxPerPd;
-  // Heat and its derivatives along the solution G(p0, T0, pd).
-  const qG = totalHeatSlope(scratch, entrance, dXdFlux, 0);
-  const qP0 = totalHeatSlope(scratch, entrance, 0, 1) + qG * fluxPerP0;
-  const qT0 = totalHeatSlope(scratch, entrance, dXdT0, 2) + qG * fluxPerT0;
-  const qPd = qG * fluxPerPd;
-  setArrival(gas, h0, dh0dp0, dh0dT0, run.heat, massFlow, rise, pd, area, scratch.state, out, [
-    qP0,
-    qT0,
-    qPd,
-    fluxPerP0,
-    fluxPerT0,
-    fluxPerPd,
-  ]);
+  // Arrival: h0_out = h0_in + Q/m - g rise = h0_in + H2 - H1 (H = h + v^2/2 at the pipe's ends),
+  // differentiated along the solution G(p0, T0, pd), on which p2 = pd.
+  const tG = totalTemperatureSlope(scratch, entrance, dXdFlux, 0);
+  const tP0 = totalTemperatureSlope(scratch, entrance, 0, 1) + tG * fluxPerP0;
+  const tT0 = totalTemperatureSlope(scratch, entrance, dXdT0, 2) + tG * fluxPerT0;
+  const tPd = tG * fluxPerPd;
+  const h2 = scratch.stagnationEnthalpy(pd, run.temperature, flux);
+  const [h2p, h2t, h2g] = scratch.enthalpySlope as unknown as [number, number, number];
+  const h1 = scratch.stagnationEnthalpy(entrance.pressure, entrance.temperature, flux);
+  const [h1p, h1t, h1g] = scratch.enthalpySlope as unknown as [number, number, number];
+  const p1s = entrance.pressureSlope;
+  const t1s = entrance.temperatureSlope;
+  const inletChange = (index: number, fluxSlope: number): number =>
+    h1p * ((p1s[index] as number) + (p1s[0] as number) * fluxSlope) +
+    h1t * ((t1s[index] as number) + (t1s[0] as number) * fluxSlope) +
+    h1g * fluxSlope;
+  const dP0 = dh0dp0 + h2t * tP0 + h2g * fluxPerP0 - inletChange(1, fluxPerP0);
+  const dT0 = dh0dT0 + h2t * tT0 + h2g * fluxPerT0 - inletChange(2, fluxPerT0);
+  const dPd =
+    h2p +
+    h2t * tPd +
+    h2g * fluxPerPd -
+    (h1p * (p1s[0] as number) + h1t * (t1s[0] as number) + h1g) * fluxPerPd;
+  if (exchange.heatTransferPerLength > 0) {
+    setArrival(gas, h0 + h2 - h1, pd, scratch.state, out, dP0, dT0, dPd);
+  } else {
+    // No heat exchange: h0_out = h0_in - g rise exactly (the integration's error stays out).
+    setArrival(gas, h0 - STANDARD_GRAVITY * rise, pd, scratch.state, out, dh0dp0, dh0dT0, 0);
+  }
 }
 
 /** The model's scratch inside an evaluation record (made on first use, then reused). */
@@ -684,8 +756,8 @@ function totalPressureSlope(
   return value;
 }
 
-/** d Q / d theta at fixed everything else (as {@link totalPressureSlope}, for the heat). */
-function totalHeatSlope(
+/** d T_exit / d theta at fixed everything else (as {@link totalPressureSlope}). */
+function totalTemperatureSlope(
   scratch: HeatTransferScratch,
   entrance: Entrance,
   frictionSlope: number,
@@ -694,44 +766,33 @@ function totalHeatSlope(
   const y = scratch.integrator.y;
   const dp1 = entrance.pressureSlope[entranceIndex] as number;
   const dt1 = entrance.temperatureSlope[entranceIndex] as number;
-  let value = dp1 * (y[5] as number) + dt1 * (y[8] as number);
-  if (entranceIndex === 0) value += y[11] as number;
-  value += frictionSlope * (y[14] as number);
+  let value = dp1 * (y[4] as number) + dt1 * (y[7] as number);
+  if (entranceIndex === 0) value += y[10] as number;
+  value += frictionSlope * (y[13] as number);
   return value;
 }
 
 /**
- * Arrival stagnation temperature from the first law, h0_out = h0_in + Q/m - g rise, taken at the
- * downstream plenum pressure, with its derivatives. `slopes`: dQ/dp0, dQ/dT0, dQ/dpd, dG/dp0,
- * dG/dT0, dG/dpd along the solution.
+ * Arrival stagnation temperature at the downstream plenum pressure from the stagnation enthalpy
+ * h0_out, with its derivatives from those of h0_out (d/dp0, d/dT0, d/dpd along the solution).
  */
 function setArrival(
   gas: Gas,
-  h0: number,
-  dh0dp0: number,
-  dh0dT0: number,
-  heat: number,
-  massFlow: number,
-  rise: number,
+  h0Out: number,
   pd: number,
-  area: number,
   state: ThermoState,
   out: PipeFlowEvaluation,
-  slopes: number[],
+  dP0: number,
+  dT0: number,
+  dPd: number,
 ): void {
-  const specificHeat = heat / massFlow;
-  const h0Out = h0 + specificHeat - STANDARD_GRAVITY * rise;
   const arrival = temperatureFromEnthalpy(gas, h0Out, pd);
   const s = gasState(gas, pd, arrival, state);
   const perEnthalpy = 1 / s.specificHeatCp;
-  const [qP0, qT0, qPd, gP0, gT0, gPd] = slopes as [number, number, number, number, number, number];
-  const qPerG = specificHeat / (massFlow / area); // d(Q/m) = dQ/m - (Q/m) dG / G
   out.arrivalTemperature = arrival;
-  out.dArrivalTemperaturedUpstreamPressure = perEnthalpy * (dh0dp0 + qP0 / massFlow - qPerG * gP0);
-  out.dArrivalTemperaturedUpstreamTemperature =
-    perEnthalpy * (dh0dT0 + qT0 / massFlow - qPerG * gT0);
-  out.dArrivalTemperaturedDownstreamPressure =
-    perEnthalpy * (qPd / massFlow - qPerG * gPd) - perEnthalpy * s.enthalpyPressureSlope;
+  out.dArrivalTemperaturedUpstreamPressure = perEnthalpy * dP0;
+  out.dArrivalTemperaturedUpstreamTemperature = perEnthalpy * dT0;
+  out.dArrivalTemperaturedDownstreamPressure = perEnthalpy * (dPd - s.enthalpyPressureSlope);
 }
 
 /**

@@ -98,3 +98,42 @@ describe("DormandPrinceIntegrator", () => {
     expect(integrator.previousY[0]).toBeLessThan(2);
   });
 });
+
+describe("DormandPrinceIntegrator in the Lawson form for a stiff relaxation", () => {
+  it("integrates y' = -lambda (y - 1) + cos x, lambda = 1e6, in few steps to its closed form", () => {
+    // Closed form: u = y - 1 = (lambda cos x + sin x) / (lambda^2 + 1) + C exp(-lambda x),
+    // C = u0 - lambda / (lambda^2 + 1). An explicit method would need steps below 3 / lambda
+    // for stability: about a million steps over [0, 3]. This is the pipe's case: the gas
+    // temperature relaxing to its surroundings under a slow forcing.
+    const lambda = 1e6;
+    const integrator = new DormandPrinceIntegrator(1);
+    integrator.tolerance = 1e-10;
+    integrator.rate[0] = 1;
+    integrator.equilibrium[0] = 1;
+    integrator.beforeStep = () => lambda;
+    const end = integrator.integrate(
+      (x, y, slope) => {
+        slope[0] = -lambda * ((y[0] as number) - 1) + Math.cos(x);
+        return true;
+      },
+      0,
+      [2],
+      3,
+      0,
+      1e-14,
+      () => true,
+    );
+    expect(end).toBe("reached");
+    // Far fewer than the explicit method's 3 lambda / 3 = 1e6 steps (the moving-equilibrium
+    // Lawson step is first order in the remainder's change when lambda h is large: steps of
+    // about sqrt(tolerance)).
+    expect(integrator.acceptedSteps).toBeLessThan(1e5);
+    const c = 1 - lambda / (lambda * lambda + 1);
+    const exact =
+      1 + (lambda * Math.cos(3) + Math.sin(3)) / (lambda * lambda + 1) + c * Math.exp(-3 * lambda);
+    // Error against the solution's scale (1): steps x tolerance.
+    expect(Math.abs((integrator.y[0] as number) - exact)).toBeLessThan(
+      integrator.acceptedSteps * 1e-10,
+    );
+  });
+});

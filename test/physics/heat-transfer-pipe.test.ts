@@ -307,3 +307,39 @@ describe("heat-transfer pipe against an independent integration (scipy solve_ivp
     });
   }
 });
+
+describe("heat-transfer pipe many thermal relaxation lengths long", () => {
+  it("reaches the surrounding temperature in a few steps and matches the isothermal model at Ts", () => {
+    // U' L / (m cp) = 4e5: the gas is at Ts after the first few centimetres. The isothermal
+    // model at T0 = Ts then describes the rest (the entrance velocity head is below 1e-6 of p
+    // here, Mach 0.002), so the outlet pressures agree closely.
+    const pipe: Pipe = { length: 2000, diameter: 0.05, frictionFactor: 0.02 };
+    const cold = { pressure: 3e5, temperature: 263.15 };
+    const hot = { pressure: 3e5, temperature: 393.15 };
+    const massFlow = 0.005;
+    const general = pipeOutlet(
+      air,
+      {
+        ...pipe,
+        model: "heat-transfer",
+        heatTransferPerLength: 1000,
+        surroundingTemperature: 263.15,
+      },
+      hot,
+      massFlow,
+    );
+    const isothermal = pipeOutlet(air, { ...pipe, model: "isothermal" }, cold, massFlow);
+    expect(general.ok && isothermal.ok).toBe(true);
+    if (!general.ok || !isothermal.ok) return;
+    expect(Math.abs(general.flow.outlet.temperature - 263.15)).toBeLessThan(1e-3);
+    const drop = cold.pressure - isothermal.flow.outlet.pressure;
+    // The first centimetres at higher temperature (lower density, higher velocity) add a little
+    // friction: of order 1e-5 of the length; 1e-3 of the drop.
+    expect(
+      Math.abs(general.flow.outlet.pressure - isothermal.flow.outlet.pressure) / drop,
+    ).toBeLessThan(1e-3);
+    // The heat is the whole enthalpy difference to the surroundings.
+    const cp = air.specificHeatCp;
+    expect(general.flow.heatFlow / (massFlow * cp * (263.15 - 393.15))).toBeCloseTo(1, 4);
+  });
+});
