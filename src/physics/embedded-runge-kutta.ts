@@ -231,22 +231,21 @@ export class DormandPrinceIntegrator {
     const { y, slope: k1, k2, k3, k4, k5, k6, k7, stage, next, rate, equilibrium } = this;
     const lambda = this.relaxationRate;
     // Decay factors exp(-lambda d h) for the stage offsets d = c_i - c_j that occur.
-    const decay = (d: number) => (lambda > 0 ? Math.exp(-lambda * d * h) : 1);
-    const e2 = decay(C2);
-    const e3 = decay(C3);
-    const e32 = decay(C3 - C2);
-    const e4 = decay(C4);
-    const e42 = decay(C4 - C2);
-    const e43 = decay(C4 - C3);
-    const e5 = decay(C5);
-    const e52 = decay(C5 - C2);
-    const e53 = decay(C5 - C3);
-    const e54 = decay(C5 - C4);
-    const e6 = decay(1);
-    const e62 = decay(1 - C2);
-    const e63 = decay(1 - C3);
-    const e64 = decay(1 - C4);
-    const e65 = decay(1 - C5);
+    const e2 = this.decay(lambda * h, C2);
+    const e3 = this.decay(lambda * h, C3);
+    const e32 = this.decay(lambda * h, C3 - C2);
+    const e4 = this.decay(lambda * h, C4);
+    const e42 = this.decay(lambda * h, C4 - C2);
+    const e43 = this.decay(lambda * h, C4 - C3);
+    const e5 = this.decay(lambda * h, C5);
+    const e52 = this.decay(lambda * h, C5 - C2);
+    const e53 = this.decay(lambda * h, C5 - C3);
+    const e54 = this.decay(lambda * h, C5 - C4);
+    const e6 = this.decay(lambda * h, 1);
+    const e62 = this.decay(lambda * h, 1 - C2);
+    const e63 = this.decay(lambda * h, 1 - C3);
+    const e64 = this.decay(lambda * h, 1 - C4);
+    const e65 = this.decay(lambda * h, 1 - C5);
     const n1 = this.n1;
     for (let i = 0; i < n; i++) {
       // The equilibrium of this step: where the linear decay balances the slope at the step's
@@ -260,78 +259,67 @@ export class DormandPrinceIntegrator {
         n1[i] = k1[i] as number;
       }
     }
-    // Stage i from u_n and the N of earlier stages; on return k_i holds N at that stage.
-    const toN = (k: Float64Array): void => {
-      for (let i = 0; i < n; i++) {
-        if ((rate[i] as number) > 0) {
-          k[i] = (k[i] as number) + lambda * ((stage[i] as number) - (equilibrium[i] as number));
-        }
-      }
-    };
-    const base = (i: number, factor: number): number => {
-      const e = equilibrium[i] as number;
-      return (rate[i] as number) > 0 ? e + factor * ((y[i] as number) - e) : (y[i] as number);
-    };
-    const pick = (i: number, factor: number): number => ((rate[i] as number) > 0 ? factor : 1);
     for (let i = 0; i < n; i++) {
-      stage[i] = base(i, e2) + h * A21 * pick(i, e2) * (n1[i] as number);
+      stage[i] = this.base(i, e2) + h * A21 * this.pick(i, e2) * (n1[i] as number);
     }
     this.evaluations++;
     if (!f(x + C2 * h, stage, k2)) return false;
-    toN(k2);
+    this.toRemainder(k2, lambda);
     for (let i = 0; i < n; i++) {
       stage[i] =
-        base(i, e3) +
-        h * (A31 * pick(i, e3) * (n1[i] as number) + A32 * pick(i, e32) * (k2[i] as number));
+        this.base(i, e3) +
+        h *
+          (A31 * this.pick(i, e3) * (n1[i] as number) +
+            A32 * this.pick(i, e32) * (k2[i] as number));
     }
     this.evaluations++;
     if (!f(x + C3 * h, stage, k3)) return false;
-    toN(k3);
+    this.toRemainder(k3, lambda);
     for (let i = 0; i < n; i++) {
       stage[i] =
-        base(i, e4) +
+        this.base(i, e4) +
         h *
-          (A41 * pick(i, e4) * (n1[i] as number) +
-            A42 * pick(i, e42) * (k2[i] as number) +
-            A43 * pick(i, e43) * (k3[i] as number));
+          (A41 * this.pick(i, e4) * (n1[i] as number) +
+            A42 * this.pick(i, e42) * (k2[i] as number) +
+            A43 * this.pick(i, e43) * (k3[i] as number));
     }
     this.evaluations++;
     if (!f(x + C4 * h, stage, k4)) return false;
-    toN(k4);
+    this.toRemainder(k4, lambda);
     for (let i = 0; i < n; i++) {
       stage[i] =
-        base(i, e5) +
+        this.base(i, e5) +
         h *
-          (A51 * pick(i, e5) * (n1[i] as number) +
-            A52 * pick(i, e52) * (k2[i] as number) +
-            A53 * pick(i, e53) * (k3[i] as number) +
-            A54 * pick(i, e54) * (k4[i] as number));
+          (A51 * this.pick(i, e5) * (n1[i] as number) +
+            A52 * this.pick(i, e52) * (k2[i] as number) +
+            A53 * this.pick(i, e53) * (k3[i] as number) +
+            A54 * this.pick(i, e54) * (k4[i] as number));
     }
     this.evaluations++;
     if (!f(x + C5 * h, stage, k5)) return false;
-    toN(k5);
+    this.toRemainder(k5, lambda);
     for (let i = 0; i < n; i++) {
       stage[i] =
-        base(i, e6) +
+        this.base(i, e6) +
         h *
-          (A61 * pick(i, e6) * (n1[i] as number) +
-            A62 * pick(i, e62) * (k2[i] as number) +
-            A63 * pick(i, e63) * (k3[i] as number) +
-            A64 * pick(i, e64) * (k4[i] as number) +
-            A65 * pick(i, e65) * (k5[i] as number));
+          (A61 * this.pick(i, e6) * (n1[i] as number) +
+            A62 * this.pick(i, e62) * (k2[i] as number) +
+            A63 * this.pick(i, e63) * (k3[i] as number) +
+            A64 * this.pick(i, e64) * (k4[i] as number) +
+            A65 * this.pick(i, e65) * (k5[i] as number));
     }
     this.evaluations++;
     if (!f(x + h, stage, k6)) return false;
-    toN(k6);
+    this.toRemainder(k6, lambda);
     // c6 = c7 = 1: the result's weights on stage 6 carry no decay.
     for (let i = 0; i < n; i++) {
       next[i] =
-        base(i, e6) +
+        this.base(i, e6) +
         h *
-          (A71 * pick(i, e6) * (n1[i] as number) +
-            A73 * pick(i, e63) * (k3[i] as number) +
-            A74 * pick(i, e64) * (k4[i] as number) +
-            A75 * pick(i, e65) * (k5[i] as number) +
+          (A71 * this.pick(i, e6) * (n1[i] as number) +
+            A73 * this.pick(i, e63) * (k3[i] as number) +
+            A74 * this.pick(i, e64) * (k4[i] as number) +
+            A75 * this.pick(i, e65) * (k5[i] as number) +
             A76 * (k6[i] as number));
     }
     this.evaluations++;
@@ -343,13 +331,41 @@ export class DormandPrinceIntegrator {
         ((rate[i] as number) > 0 ? lambda * ((next[i] as number) - (equilibrium[i] as number)) : 0);
       error[i] =
         h *
-        (E1 * pick(i, e6) * (n1[i] as number) +
-          E3 * pick(i, e63) * (k3[i] as number) +
-          E4 * pick(i, e64) * (k4[i] as number) +
-          E5 * pick(i, e65) * (k5[i] as number) +
+        (E1 * this.pick(i, e6) * (n1[i] as number) +
+          E3 * this.pick(i, e63) * (k3[i] as number) +
+          E4 * this.pick(i, e64) * (k4[i] as number) +
+          E5 * this.pick(i, e65) * (k5[i] as number) +
           E6 * (k6[i] as number) +
           E7 * n7);
     }
     return true;
+  }
+
+  /** exp(-lambda h d), 1 without relaxation. */
+  private decay(lambdaStep: number, offset: number): number {
+    return lambdaStep > 0 ? Math.exp(-lambdaStep * offset) : 1;
+  }
+
+  /** Turn the slopes k of the stage in `stage` into N = k + lambda (y - e) for relaxing parts. */
+  private toRemainder(k: Float64Array, lambda: number): void {
+    const { rate, stage, equilibrium } = this;
+    for (let i = 0; i < this.dimension; i++) {
+      if ((rate[i] as number) > 0) {
+        k[i] = (k[i] as number) + lambda * ((stage[i] as number) - (equilibrium[i] as number));
+      }
+    }
+  }
+
+  /** Start value of component i for a stage at decay factor `factor`: e + factor (y - e). */
+  private base(i: number, factor: number): number {
+    const y = this.y[i] as number;
+    if (!((this.rate[i] as number) > 0)) return y;
+    const e = this.equilibrium[i] as number;
+    return e + factor * (y - e);
+  }
+
+  /** The decay factor for a relaxing component, 1 for the others. */
+  private pick(i: number, factor: number): number {
+    return (this.rate[i] as number) > 0 ? factor : 1;
   }
 }
