@@ -36,7 +36,7 @@ export interface GasInput {
 }
 
 /** Pipe models of the network solver. */
-export type PipeModelName = "adiabatic" | "isothermal";
+export type PipeModelName = "adiabatic" | "isothermal" | "heat-transfer";
 
 /** The `settings.limits` member. */
 export interface LimitsInput {
@@ -64,6 +64,8 @@ export interface NodeInput {
   pressure?: QuantityInput;
   temperature?: QuantityInput;
   demand?: QuantityInput;
+  /** Height above a common datum. @defaultValue 0 */
+  elevation?: QuantityInput;
 }
 
 /** Edge kinds: a pipe or a component. */
@@ -113,6 +115,12 @@ export interface PipeEdgeInput extends EdgeInputBase {
   minorLoss?: number;
   fittings?: FittingInput[];
   model?: PipeModelName;
+  /** Heat-transfer model: overall coefficient per inside wall area (W/(m2 K)). */
+  heatTransferCoefficient?: QuantityInput;
+  /** Heat-transfer model: overall coefficient per unit length (W/(m K)). */
+  heatTransferPerLength?: QuantityInput;
+  /** Heat-transfer model: temperature of the surroundings. @defaultValue ambient temperature */
+  surroundingTemperature?: QuantityInput;
 }
 
 /** An orifice plate or restriction orifice, or a rounded nozzle. */
@@ -209,6 +217,8 @@ export interface CheckedNode {
   temperature?: number;
   /** External mass flow leaving the network here [kg/s]; negative is an injection. 0 if none. */
   demand: number;
+  /** Height above the datum [m]; 0 if not given. */
+  elevation: number;
 }
 
 /**
@@ -237,6 +247,10 @@ interface CheckedEdgeBase {
 /** A pipe with its values in SI. */
 export interface CheckedPipeEdge extends CheckedEdgeBase {
   kind: "pipe";
+  /** Heat-transfer model: U' per unit length [W/(m K)] (from either coefficient); 0 if none. */
+  heatTransferPerLength?: number;
+  /** Heat-transfer model: surrounding temperature [K]. */
+  surroundingTemperature?: number;
   /** Nominal size and schedule it was given by, if any. */
   catalog?: { nominalPipeSize: number; nominalDiameter: number; schedule: string };
 }

@@ -47,6 +47,19 @@ export const INPUT_RANGES = Object.freeze({
   molarMass: { low: 1e-3, high: 1, unit: "kg/mol", what: "molar masses of gases" },
   viscosity: { low: 1e-7, high: 1e-3, unit: "Pa s", what: "viscosities of gases" },
   sutherlandConstant: { low: 0, high: 1e4, unit: "K", what: "Sutherland constants" },
+  elevation: { low: -2e4, high: 2e4, unit: "m", what: "elevations of gas networks" },
+  heatTransferCoefficient: {
+    low: 0,
+    high: 1e5,
+    unit: "W/(m2 K)",
+    what: "overall heat-transfer coefficients of pipes",
+  },
+  heatTransferPerLength: {
+    low: 0,
+    high: 1e6,
+    unit: "W/(m K)",
+    what: "overall heat-transfer coefficients of pipes per unit length",
+  },
 } satisfies Record<string, InputRange>);
 
 /**

@@ -123,7 +123,7 @@ export const networkSchema = {
       additionalProperties: false,
       properties: {
         pipeModel: {
-          enum: ["adiabatic", "isothermal"],
+          enum: ["adiabatic", "isothermal", "heat-transfer"],
           description: "Default model of every pipe. Default adiabatic.",
         },
         tolerance: {
@@ -182,6 +182,11 @@ export const networkSchema = {
             ...quantity,
             description:
               "Junction: mass flow taken out of the network there (negative: injected). Mass, or standard/normal volume flow.",
+          },
+          elevation: {
+            ...quantity,
+            description:
+              'Height above a common datum, e.g. "12 m". Default 0. Pipes between nodes at different elevations need model "heat-transfer" (the only one with gravity).',
           },
         },
         allOf: [
@@ -294,7 +299,26 @@ export const networkSchema = {
               },
             },
           },
-          model: { enum: ["adiabatic", "isothermal"], description: "Pipe: flow model." },
+          model: {
+            enum: ["adiabatic", "isothermal", "heat-transfer"],
+            description:
+              "Pipe: flow model. heat-transfer: friction, heat exchange with the surroundings and elevation, integrated along the pipe.",
+          },
+          heatTransferCoefficient: {
+            ...quantity,
+            description:
+              'Pipe, model heat-transfer: overall heat-transfer coefficient per inside wall area, >= 0, e.g. "8 W/(m2 K)". Or give heatTransferPerLength. Default 0.',
+          },
+          heatTransferPerLength: {
+            ...quantity,
+            description:
+              'Pipe, model heat-transfer: overall heat-transfer coefficient per unit length, >= 0, e.g. "1.5 W/(m K)". Instead of heatTransferCoefficient.',
+          },
+          surroundingTemperature: {
+            ...quantity,
+            description:
+              "Pipe, model heat-transfer: temperature of the surroundings. Default ambient.temperature.",
+          },
           boreDiameter: {
             ...quantity,
             description: "Orifice: bore; nozzle: throat diameter. > 0.",
@@ -384,6 +408,7 @@ export const networkSchema = {
             // biome-ignore lint/suspicious/noThenProperty: JSON Schema's own if/then keyword
             then: { required: ["setpoint"] },
           },
+          { not: { required: ["heatTransferCoefficient", "heatTransferPerLength"] } },
         ],
         not: { required: ["roughness", "frictionFactor"] },
       },

@@ -38,6 +38,8 @@ export type QuantityKind =
   | "area"
   /** W/(m2 K) */
   | "heatTransferCoefficient"
+  /** W/(m K) */
+  | "heatTransferPerLength"
   | "dimensionless";
 
 /** Facts about the place a quantity comes from. */
@@ -154,6 +156,12 @@ const KINDS: Record<QuantityKind, KindSpec> = {
     si: "W/(m^2 K)",
     examples: '"10 W/(m2 K)"',
     units: "W/(m2 K), kW/(m2 K), BTU/(h ft2 degF)",
+  },
+  heatTransferPerLength: {
+    noun: "a heat-transfer coefficient per unit length",
+    si: "W/(m K)",
+    examples: '"1.5 W/(m K)"',
+    units: "W/(m K), kW/(m K), BTU/(h ft degF)",
   },
   dimensionless: {
     noun: "a plain number",

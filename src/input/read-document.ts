@@ -11,6 +11,7 @@ import type {
   DesignLimits,
   InputNote,
   NetworkDocument,
+  PipeEdgeInput,
   QuantityInput,
   SolverSettings,
 } from "./document-types.js";
@@ -285,8 +286,9 @@ function convertDocument(doc: NetworkDocument): ReadResult {
 
   const nodes: CheckedNode[] = doc.nodes.map((node, index) => readNode(node, index, reader));
   const edges: CheckedEdge[] = doc.edges.map((edge, index) =>
-    readEdge(edge, index, settings.pipeModel, reader),
+    readEdge(edge, index, settings.pipeModel, ambientTemperature, reader),
   );
+  checkElevations(nodes, edges, reader);
 
   if (gas !== undefined) gasModelSupportIssues(gas, edges, reader);
 
@@ -314,7 +316,15 @@ function readNode(
   reader: Reader,
 ): CheckedNode {
   const path = jsonPointer("nodes", index);
-  const checked: CheckedNode = { id: node.id, kind: node.kind, demand: 0 };
+  const checked: CheckedNode = { id: node.id, kind: node.kind, demand: 0, elevation: 0 };
+  const elevation = inRange(
+    reader,
+    reader.quantity(node.elevation, "length", `${path}/elevation`),
+    node.elevation,
+    `${path}/elevation`,
+    INPUT_RANGES.elevation,
+  );
+  if (elevation !== undefined) checked.elevation = elevation;
   if (node.kind === "reservoir") {
     const pressure = inRange(
       reader,
@@ -366,10 +376,89 @@ function readNode(
   return checked;
 }
 
+/**
+ * Pipes between nodes at different elevations must use the heat-transfer model: the closed-form
+ * adiabatic and isothermal models have no gravity term (docs/model.md, "Elevation").
+ */
+function checkElevations(nodes: CheckedNode[], edges: CheckedEdge[], reader: Reader): void {
+  const elevationOf = new Map(nodes.map((node) => [node.id, node.elevation]));
+  edges.forEach((edge, index) => {
+    if (edge.kind !== "pipe" || edge.model === "heat-transfer") return;
+    const from = elevationOf.get(edge.from);
+    const to = elevationOf.get(edge.to);
+    if (from === undefined || to === undefined || from === to) return;
+    reader.fail({
+      code: "value",
+      path: `${jsonPointer("edges", index)}/model`,
+      value: edge.model,
+      message: `pipe ${edge.id} joins nodes ${Number(Math.abs(to - from).toPrecision(4))} m apart in elevation, and the ${edge.model} model has no gravity term; use "model": "heat-transfer"`,
+    });
+  });
+}
+
+/** U' [W/(m K)] and the surrounding temperature of a heat-transfer pipe, or an issue. */
+function readHeatExchange(
+  edge: PipeEdgeInput,
+  path: string,
+  model: CheckedEdge["model"],
+  diameter: number,
+  ambientTemperature: number,
+  reader: Reader,
+): { heatTransferPerLength: number; surroundingTemperature: number } | undefined {
+  const fields = ["heatTransferCoefficient", "heatTransferPerLength", "surroundingTemperature"];
+  if (model !== "heat-transfer") {
+    for (const field of fields) {
+      const value = edge[field as keyof PipeEdgeInput];
+      if (value === undefined) continue;
+      reader.fail({
+        code: "value",
+        path: `${path}/${field}`,
+        value: value as QuantityInput,
+        message: `applies to the heat-transfer model only; this pipe uses the ${model} model (set "model": "heat-transfer")`,
+      });
+    }
+    return undefined;
+  }
+  const perArea = inRange(
+    reader,
+    reader.quantity(
+      edge.heatTransferCoefficient,
+      "heatTransferCoefficient",
+      `${path}/heatTransferCoefficient`,
+    ),
+    edge.heatTransferCoefficient,
+    `${path}/heatTransferCoefficient`,
+    INPUT_RANGES.heatTransferCoefficient,
+  );
+  const perLength = inRange(
+    reader,
+    reader.quantity(
+      edge.heatTransferPerLength,
+      "heatTransferPerLength",
+      `${path}/heatTransferPerLength`,
+    ),
+    edge.heatTransferPerLength,
+    `${path}/heatTransferPerLength`,
+    INPUT_RANGES.heatTransferPerLength,
+  );
+  const surrounding = inRange(
+    reader,
+    reader.quantity(edge.surroundingTemperature, "temperature", `${path}/surroundingTemperature`),
+    edge.surroundingTemperature,
+    `${path}/surroundingTemperature`,
+    INPUT_RANGES.temperature,
+  );
+  return {
+    heatTransferPerLength: perLength ?? (perArea ?? 0) * Math.PI * diameter,
+    surroundingTemperature: surrounding ?? ambientTemperature,
+  };
+}
+
 function readEdge(
   edge: NetworkDocument["edges"][number],
   index: number,
   defaultModel: CheckedEdge["model"],
+  ambientTemperature: number,
   reader: Reader,
 ): CheckedEdge {
   const path = jsonPointer("edges", index);
@@ -398,6 +487,18 @@ function readEdge(
     model: edge.model ?? defaultModel,
   };
   if (extras.catalog !== undefined) checked.catalog = extras.catalog;
+  const exchange = readHeatExchange(
+    edge,
+    path,
+    checked.model,
+    diameter,
+    ambientTemperature,
+    reader,
+  );
+  if (exchange !== undefined && checked.kind === "pipe") {
+    checked.heatTransferPerLength = exchange.heatTransferPerLength;
+    checked.surroundingTemperature = exchange.surroundingTemperature;
+  }
   if (edge.frictionFactor !== undefined) {
     checked.frictionFactor = edge.frictionFactor;
   } else {

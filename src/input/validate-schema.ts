@@ -136,6 +136,14 @@ function notIssue(path: string, schema: unknown): InputIssue {
       message: 'give either "roughness" or "frictionFactor", not both',
     };
   }
+  if (required.includes("heatTransferCoefficient") && required.includes("heatTransferPerLength")) {
+    return {
+      code: "schema",
+      path,
+      message:
+        'give either "heatTransferCoefficient" (per wall area) or "heatTransferPerLength", not both',
+    };
+  }
   if (required.includes("demand")) {
     return {
       code: "schema",

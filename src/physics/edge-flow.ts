@@ -12,6 +12,7 @@ import {
   componentSquaredLawResistance,
   evaluateComponentFlow,
 } from "./components/component-flow.js";
+import { zeroFlowOutletPressure } from "./heat-transfer-pipe.js";
 import { endStatesOf, outletForMassFlow, type PipeEndState } from "./pipe.js";
 import {
   evaluatePipeFlow,
@@ -29,11 +30,42 @@ export interface PipeElement extends PipeGeometry {
 export type EdgeElement = PipeElement | ComponentElement;
 
 /**
+ * Which way an edge flows: true when from its `from` end to its `to` end. The end at the higher
+ * pressure is upstream, except on a pipe that rises or falls: there the `from` end is upstream
+ * when the `to` end's pressure is below the column's zero-flow pressure (the hydrostatic head;
+ * see zeroFlowOutletPressure in heat-transfer-pipe.ts, taken from the `from` end's state).
+ * `pressureDifference` is pFrom - pTo, passed by the caller because the network solver knows it
+ * more exactly than the difference of the two rounded pressures.
+ */
+export function flowsForward(
+  element: EdgeElement,
+  gas: PipeGas,
+  pressureFrom: number,
+  pressureTo: number,
+  pressureDifference: number,
+  temperatureFrom: number,
+  scratch: PipeFlowEvaluation,
+): boolean {
+  if (element.kind !== "pipe" || !element.rise) return pressureDifference >= 0;
+  const state = scratch.thermo;
+  const zeroFlow = zeroFlowOutletPressure(
+    gas.gas,
+    pressureFrom,
+    temperatureFrom,
+    element.rise,
+    element.heatTransferPerLength ?? 0,
+    element.surroundingTemperature ?? temperatureFrom,
+    state,
+  );
+  return zeroFlow >= pressureTo;
+}
+
+/**
  * Flow through an edge from its upstream end (stagnation state p0, T0) to its downstream end at
  * pressure pd <= p0, with derivatives, into `out`.
  *
  * @param forward - true when the upstream end is the edge's declared `from` node (components
- *   that pass flow one way only need it; pipes do not)
+ *   that pass flow one way only need it, and heat-transfer pipes for the sense of their rise)
  * @param needCapacity - also compute the capacity (the largest flow) when not near choking; for
  *   a component, also the Mach numbers in its connecting pipes (results need both, Newton
  *   iterations neither)
@@ -72,6 +104,7 @@ export function evaluateEdgeFlow(
     out,
     needCapacity,
     pressureDrop,
+    forward,
   );
 }
 
@@ -108,6 +141,7 @@ export function exitPressureForFlow(
   upstreamTemperature: number,
   massFlow: number,
   scratch: PipeFlowEvaluation,
+  forward = true,
 ): number {
   if (element.kind !== "pipe") return Number.NaN;
   const passes = outletForMassFlow(
@@ -117,6 +151,7 @@ export function exitPressureForFlow(
     upstreamTemperature,
     massFlow,
     scratch,
+    forward,
   );
   return passes ? scratch.outletPressure : Number.POSITIVE_INFINITY;
 }

@@ -6,7 +6,8 @@
  * derivatives with respect to p0, T0 and pd, whether the pipe is choked, and the stagnation
  * temperature of the gas arriving downstream.
  *
- * Two models (docs/model.md, "Pipe models"):
+ * Three models (docs/model.md, "Pipe models"); the third, heat-transfer (friction, heat exchange
+ * with the surroundings and elevation, integrated along the pipe), is in heat-transfer-pipe.ts:
  * - adiabatic: isentropic acceleration from the plenum into the pipe inlet, then Fanno flow over
  *   the friction parameter X = fD L/D + sum K; exit static pressure = pd while subsonic; choked
  *   when the exit reaches Mach 1 (then p_exit = p* >= pd).
@@ -20,8 +21,11 @@
  * This is the solver's hot path: one reusable output object, no allocation per call.
  */
 
+import type { Gas } from "../gas/gas-types.js";
+import { emptyThermoState, type ThermoState } from "../gas/thermo.js";
 import { fannoParameter, machFromFannoParameter } from "./fanno.js";
 import { darcyFrictionWithSlope, type FrictionWithSlope } from "./friction.js";
+import { evaluateHeatTransferPipe, type HeatTransferScratch } from "./heat-transfer-pipe.js";
 
 /** Geometry and friction of one pipe, in SI. */
 export interface PipeGeometry {
@@ -35,8 +39,17 @@ export interface PipeGeometry {
   fixedFrictionFactor: number;
   /** Sum of minor-loss coefficients K [-], added to fD L/D. */
   minorLoss: number;
-  model: "adiabatic" | "isothermal";
+  model: PipeModel;
+  /** Heat-transfer model: overall heat-transfer coefficient per unit length U' [W/(m K)]. */
+  heatTransferPerLength?: number;
+  /** Heat-transfer model: temperature of the surroundings [K]. */
+  surroundingTemperature?: number;
+  /** Heat-transfer model: elevation of the `to` end minus the `from` end [m]. @defaultValue 0 */
+  rise?: number;
 }
+
+/** The pipe models (docs/model.md, "Pipe models"). */
+export type PipeModel = "adiabatic" | "isothermal" | "heat-transfer";
 
 /** The gas constants a pipe evaluation needs. */
 export interface PipeGas {
@@ -46,6 +59,8 @@ export interface PipeGas {
   heatCapacityRatio: number;
   /** mu(T) [Pa s] */
   viscosity: (temperature: number) => number;
+  /** The gas itself: the heat-transfer model takes its properties through src/gas/thermo.ts. */
+  gas: Gas;
 }
 
 /** Result of one evaluation. Reused between calls: copy what you keep. */
@@ -82,6 +97,15 @@ export class PipeFlowEvaluation {
   lastCapacityInletMach = Number.NaN;
   /** False when the capacity was not needed and not computed (then `capacity` is NaN). */
   capacityKnown = false;
+  /** Heat-transfer model: heat flow into the gas over the pipe [W] (negative: the gas loses heat). */
+  heatFlow = 0;
+  /** Heat-transfer model: static temperature just inside the inlet and at the exit [K]. */
+  inletTemperature = 0;
+  outletTemperature = 0;
+  /** Heat-transfer model's work space (made on first use). */
+  heatTransfer: HeatTransferScratch | undefined = undefined;
+  /** A thermodynamic state record for callers (the orientation of a rising pipe). */
+  readonly thermo: ThermoState = emptyThermoState();
   /** Scratch of the friction relation (kept here so the hot path allocates nothing). */
   readonly friction: FrictionScratch = {
     value: 0,
@@ -92,7 +116,7 @@ export class PipeFlowEvaluation {
 }
 
 /** Scratch of {@link frictionParameter}. */
-interface FrictionScratch {
+export interface FrictionScratch {
   /** X = fD L/D + K [-] */
   value: number;
   /** dX/dRe [-] */
@@ -103,7 +127,11 @@ interface FrictionScratch {
 }
 
 /** Friction parameter fD L/D + K at a Reynolds number, and its derivative with respect to Re. */
-function frictionParameter(pipe: PipeGeometry, reynolds: number, out: FrictionScratch): void {
+export function frictionParameter(
+  pipe: PipeGeometry,
+  reynolds: number,
+  out: FrictionScratch,
+): void {
   const lengthRatio = pipe.length / pipe.diameter;
   if (!Number.isNaN(pipe.fixedFrictionFactor)) {
     // A fixed factor holds while it exceeds the laminar value; below that (vanishing flow) the
@@ -174,6 +202,8 @@ function fannoSlope(mach: number, gamma: number): number {
  *   the two rounded pressures (the network solver holds junction pressures as small offsets from
  *   a reference, so a drop of a few units in the last place of p0 keeps its digits); used by the
  *   creeping-flow law, the only one whose flow follows from such a drop.
+ * @param forward - true when the flow runs from the pipe's `from` end to its `to` end (the
+ *   heat-transfer model's rise then counts upward in the flow direction)
  */
 export function evaluatePipeFlow(
   pipe: PipeGeometry,
@@ -184,8 +214,23 @@ export function evaluatePipeFlow(
   out: PipeFlowEvaluation,
   needCapacity = true,
   pressureDrop = upstreamPressure - downstreamPressure,
+  forward = true,
 ): PipeFlowEvaluation {
-  if (pipe.model === "isothermal") {
+  if (pipe.model === "heat-transfer") {
+    const rise = pipe.rise ?? 0;
+    evaluateHeatTransferPipe(
+      pipe,
+      gas.gas,
+      gas.viscosity,
+      frictionParameter,
+      upstreamPressure,
+      upstreamTemperature,
+      downstreamPressure,
+      forward ? rise : -rise,
+      out,
+      needCapacity,
+    );
+  } else if (pipe.model === "isothermal") {
     evaluateIsothermal(
       pipe,
       gas,

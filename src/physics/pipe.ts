@@ -12,6 +12,7 @@ import { gasViscosity } from "../gas/gas.js";
 import type { Gas } from "../gas/gas-types.js";
 import { fannoParameter, fannoPressureRatio, machFromFannoParameter } from "./fanno.js";
 import { darcyFrictionFactor } from "./friction.js";
+import { heatTransferOutlet } from "./heat-transfer-pipe.js";
 import {
   isentropicPressureRatio,
   isentropicTemperatureRatio,
@@ -20,9 +21,11 @@ import {
 } from "./isentropic.js";
 import {
   evaluatePipeFlow,
+  frictionParameter as frictionParameterOf,
   PipeFlowEvaluation,
   type PipeGas,
   type PipeGeometry,
+  type PipeModel,
 } from "./pipe-flow.js";
 
 /** A pipe in SI units. */
@@ -38,7 +41,19 @@ export interface Pipe {
   /** Sum of minor-loss coefficients K [-]. @defaultValue 0 */
   minorLoss?: number;
   /** @defaultValue "adiabatic" */
-  model?: "adiabatic" | "isothermal";
+  model?: PipeModel;
+  /**
+   * Heat-transfer model: overall heat-transfer coefficient per unit length U' [W/(m K)]; or give
+   * `heatTransferPerArea`. @defaultValue 0 (no heat exchange)
+   */
+  heatTransferPerLength?: number;
+  /** Heat-transfer model: overall heat-transfer coefficient per inside wall area U [W/(m2 K)];
+   * U' = U pi D. */
+  heatTransferPerArea?: number;
+  /** Heat-transfer model: temperature of the surroundings [K]. @defaultValue 293.15 */
+  surroundingTemperature?: number;
+  /** Heat-transfer model: elevation of the outlet minus the inlet [m]. @defaultValue 0 */
+  rise?: number;
 }
 
 /** The state of the gas at one end of a pipe (just inside it), all SI. */
@@ -74,6 +89,12 @@ export interface PipeFlowResult {
   frictionFactor: number;
   inlet: PipeEndState;
   outlet: PipeEndState;
+  /**
+   * Heat flow into the gas over the pipe [W], negative when the gas loses heat: the integral of
+   * U'(Ts - T) for the heat-transfer model; m cp (T0 out - T0 in) implied by the isothermal model;
+   * 0 for the adiabatic one.
+   */
+  heatFlow: number;
 }
 
 /** The upstream plenum: gas at rest. */
@@ -96,8 +117,15 @@ export function pipeGeometry(pipe: Pipe): PipeGeometry {
     fixedFrictionFactor: pipe.frictionFactor ?? Number.NaN,
     minorLoss: pipe.minorLoss ?? 0,
     model: pipe.model ?? "adiabatic",
+    heatTransferPerLength:
+      pipe.heatTransferPerLength ?? (pipe.heatTransferPerArea ?? 0) * Math.PI * pipe.diameter,
+    surroundingTemperature: pipe.surroundingTemperature ?? DEFAULT_SURROUNDING_TEMPERATURE,
+    rise: pipe.rise ?? 0,
   };
 }
+
+/** Default surrounding temperature of a single pipe [K]: 20 degC, as the network's ambient. */
+const DEFAULT_SURROUNDING_TEMPERATURE = 293.15;
 
 /** The kernel's view of a gas. */
 export function pipeGas(gas: Gas): PipeGas {
@@ -105,6 +133,7 @@ export function pipeGas(gas: Gas): PipeGas {
     specificGasConstant: gas.specificGasConstant,
     heatCapacityRatio: gas.heatCapacityRatio,
     viscosity: (temperature: number) => gasViscosity(gas, temperature),
+    gas,
   };
 }
 
@@ -120,6 +149,18 @@ function checkPipe(pipe: Pipe, upstream: PlenumState): void {
     problems.push(`frictionFactor must be > 0 (got ${pipe.frictionFactor})`);
   if (pipe.minorLoss !== undefined && !(pipe.minorLoss >= 0))
     problems.push(`minorLoss must be >= 0 (got ${pipe.minorLoss})`);
+  if (pipe.heatTransferPerLength !== undefined && !(pipe.heatTransferPerLength >= 0))
+    problems.push(`heatTransferPerLength must be >= 0 W/(m K) (got ${pipe.heatTransferPerLength})`);
+  if (pipe.heatTransferPerArea !== undefined && !(pipe.heatTransferPerArea >= 0))
+    problems.push(`heatTransferPerArea must be >= 0 W/(m2 K) (got ${pipe.heatTransferPerArea})`);
+  if (pipe.heatTransferPerLength !== undefined && pipe.heatTransferPerArea !== undefined)
+    problems.push("give heatTransferPerLength or heatTransferPerArea, not both");
+  if (pipe.surroundingTemperature !== undefined && !(pipe.surroundingTemperature > 0))
+    problems.push(`surroundingTemperature must be > 0 K (got ${pipe.surroundingTemperature})`);
+  if (pipe.rise !== undefined && !(Math.abs(pipe.rise) <= pipe.length))
+    problems.push(`rise must be a number no larger than the length (got ${pipe.rise})`);
+  if ((pipe.model ?? "adiabatic") !== "heat-transfer" && (pipe.rise ?? 0) !== 0)
+    problems.push('a rise needs model "heat-transfer" (the closed-form models have no gravity)');
   if (!(upstream.pressure > 0 && Number.isFinite(upstream.pressure)))
     problems.push(`upstream pressure must be > 0 Pa (got ${upstream.pressure})`);
   if (!(upstream.temperature > 0 && Number.isFinite(upstream.temperature)))
@@ -131,16 +172,17 @@ function checkPipe(pipe: Pipe, upstream: PlenumState): void {
  * End states from the kernel's Mach numbers and pressures.
  * Adiabatic: T0 constant; T = T0 / (1 + (gamma-1)/2 M^2); p0 = p (T0/T)^(gamma/(gamma-1)).
  * Isothermal: static T constant at the upstream plenum temperature.
+ * Heat-transfer: static T from the integration (inlet and outlet), T0 = T (1 + (gamma-1)/2 M^2).
  */
 export function endStatesOf(
   gas: PipeGas,
-  model: "adiabatic" | "isothermal",
+  model: PipeModel,
   upstreamTemperature: number,
   evaluation: PipeFlowEvaluation,
 ): { inlet: PipeEndState; outlet: PipeEndState } {
   const gamma = gas.heatCapacityRatio;
   const r = gas.specificGasConstant;
-  const state = (pressure: number, mach: number): PipeEndState => {
+  const state = (pressure: number, mach: number, integrated: number): PipeEndState => {
     if (model === "adiabatic") {
       const temperature = upstreamTemperature * isentropicTemperatureRatio(mach, gamma);
       return {
@@ -153,7 +195,7 @@ export function endStatesOf(
         mach,
       };
     }
-    const temperature = upstreamTemperature;
+    const temperature = model === "heat-transfer" ? integrated : upstreamTemperature;
     return {
       pressure,
       stagnationPressure: pressure / isentropicPressureRatio(mach, gamma),
@@ -165,8 +207,8 @@ export function endStatesOf(
     };
   };
   return {
-    inlet: state(evaluation.inletPressure, evaluation.inletMach),
-    outlet: state(evaluation.outletPressure, evaluation.outletMach),
+    inlet: state(evaluation.inletPressure, evaluation.inletMach, evaluation.inletTemperature),
+    outlet: state(evaluation.outletPressure, evaluation.outletMach, evaluation.outletTemperature),
   };
 }
 
@@ -223,7 +265,29 @@ export function pipeFlow(
     frictionFactor: evaluation.frictionFactor,
     inlet: ends.inlet,
     outlet: ends.outlet,
+    heatFlow: heatFlowOf(
+      gas,
+      geometry,
+      upstream.temperature,
+      evaluation,
+      ends.outlet.stagnationTemperature,
+    ),
   };
+}
+
+/** Heat into the gas of an evaluated pipe [W] (see {@link PipeFlowResult.heatFlow}). */
+export function heatFlowOf(
+  gas: Gas,
+  geometry: PipeGeometry,
+  upstreamTemperature: number,
+  evaluation: PipeFlowEvaluation,
+  outletStagnationTemperature: number,
+): number {
+  if (geometry.model === "heat-transfer") return evaluation.heatFlow;
+  if (geometry.model === "adiabatic") return 0;
+  return (
+    evaluation.massFlow * gas.specificHeatCp * (outletStagnationTemperature - upstreamTemperature)
+  );
 }
 
 /** Result of {@link pipeOutlet}. */
@@ -299,6 +363,7 @@ export function pipeOutlet(
       frictionFactor,
       inlet: ends.inlet,
       outlet: ends.outlet,
+      heatFlow: heatFlowOf(gas, geometry, t0, evaluation, ends.outlet.stagnationTemperature),
     },
   };
 }
@@ -316,7 +381,22 @@ export function outletForMassFlow(
   t0: number,
   massFlow: number,
   evaluation: PipeFlowEvaluation,
+  forward = true,
 ): boolean {
+  if (geometry.model === "heat-transfer" && massFlow > 0) {
+    const rise = geometry.rise ?? 0;
+    return heatTransferOutlet(
+      geometry,
+      gas,
+      (temperature) => gasViscosity(gas, temperature),
+      frictionParameterOf,
+      p0,
+      t0,
+      massFlow,
+      forward ? rise : -rise,
+      evaluation,
+    );
+  }
   const gamma = gas.heatCapacityRatio;
   const r = gas.specificGasConstant;
   const area = 0.25 * Math.PI * geometry.diameter * geometry.diameter;

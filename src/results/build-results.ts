@@ -9,7 +9,9 @@ import {
   edgeEndStates,
   evaluateEdgeFlow,
   exitPressureForFlow,
+  flowsForward,
 } from "../physics/edge-flow.js";
+import { STANDARD_GRAVITY } from "../physics/heat-transfer-pipe.js";
 import { PipeFlowEvaluation } from "../physics/pipe-flow.js";
 import {
   type NetworkSystem,
@@ -53,6 +55,7 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
   const enthalpyArriving = new Float64Array(nodeCount);
   const edges: EdgeResult[] = [];
   let heatIn = 0;
+  let potentialEnergyGain = 0;
   const inverse = new PipeFlowEvaluation();
   let largestExitPressureMismatch = 0;
 
@@ -62,13 +65,24 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     const pFrom = nodePressure(system, x, from);
     const pTo = nodePressure(system, x, to);
     const difference = nodePressureDifference(system, x, from, to);
-    const forward = difference >= 0;
+    const element = system.elements[e] as EdgeElement;
+    const forward = flowsForward(
+      element,
+      system.gas,
+      pFrom,
+      pTo,
+      difference,
+      nodeTemperature(system, x, from),
+      inverse,
+    );
+    // The drop in the direction of flow; negative on a falling pipe whose gas column raises
+    // the outlet pressure above the inlet's.
+    const drop = forward ? difference : -difference;
     const upstream = forward ? from : to;
     const downstream = forward ? to : from;
     const pUp = forward ? pFrom : pTo;
     const pDown = forward ? pTo : pFrom;
     const tUp = nodeTemperature(system, x, upstream);
-    const element = system.elements[e] as EdgeElement;
     // Evaluated afresh from the final node states, with the capacity (warm-started from the
     // solver's last evaluation of this edge for speed: the root does not depend on the start).
     const evaluation = evaluateEdgeFlow(
@@ -80,7 +94,7 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
       forward,
       system.evaluations[e] as PipeFlowEvaluation,
       true,
-      Math.abs(difference),
+      drop,
     );
     const flow = evaluation.massFlow;
     const signed = forward ? flow : -flow;
@@ -89,11 +103,20 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     inflowMagnitude[downstream] = (inflowMagnitude[downstream] as number) + flow;
     enthalpyArriving[downstream] =
       (enthalpyArriving[downstream] as number) + flow * cp * evaluation.arrivalTemperature;
-    heatIn += flow * cp * (evaluation.arrivalTemperature - tUp);
+    // Heat into the gas: the heat-transfer model's own integral; otherwise what the arrival
+    // temperature implies (isothermal pipes; 0 for adiabatic pipes and components). Lift: m g dz.
+    const rise = element.kind === "pipe" ? (element.rise ?? 0) * (forward ? 1 : -1) : 0;
+    const lift = flow * STANDARD_GRAVITY * rise;
+    const heat =
+      element.kind === "pipe" && element.model === "heat-transfer"
+        ? evaluation.heatFlow
+        : flow * cp * (evaluation.arrivalTemperature - tUp) + lift;
+    heatIn += heat;
+    potentialEnergyGain += lift;
 
     if (!evaluation.choked && flow > 0) {
       // Independent check: the inverse relation must put this flow's exit at the node pressure.
-      const exitPressure = exitPressureForFlow(element, gas, pUp, tUp, flow, inverse);
+      const exitPressure = exitPressureForFlow(element, gas, pUp, tUp, flow, inverse, forward);
       if (!Number.isNaN(exitPressure)) {
         // Less what the flow's own accuracy explains: near choke the exit pressure moves by a
         // large amount for a tiny change of flow (its slope dm/dpd goes to zero).
@@ -119,7 +142,8 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
       frictionFactor: evaluation.frictionFactor,
       inlet: ends.inlet,
       outlet: ends.outlet,
-      pressureDrop: Math.abs(difference),
+      pressureDrop: drop,
+      heatFlow: heat === 0 ? 0 : heat,
     };
     if (element.kind !== "pipe") {
       result.component = componentDetails(element, system.gas, pUp, pDown, forward, evaluation);
@@ -157,6 +181,7 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
         pressure,
         temperature,
         demand: supplied === 0 ? 0 : -supplied,
+        elevation: node.elevation,
       });
       return;
     }
@@ -183,11 +208,21 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     if ((inflowMagnitude[index] as number) <= NO_FLOW_WEIGHT * throughput && injection === 0) {
       noFlowJunctions.push(index);
     }
-    nodes.push({ id: node.id, kind: node.kind, pressure, temperature, demand });
+    nodes.push({
+      id: node.id,
+      kind: node.kind,
+      pressure,
+      temperature,
+      demand,
+      elevation: node.elevation,
+    });
   });
 
   // Listed in the file's order (the model's is canonical, by id).
   const { nodes: nodeInFile, edges: edgeInFile } = model.filePosition;
+  // The first law of the whole network: enthalpy in + heat in - lift = enthalpy out.
+  const energyScale = Math.max(enthalpyIn, enthalpyOut, Number.MIN_VALUE);
+  const energyImbalance = (enthalpyIn + heatIn - potentialEnergyGain - enthalpyOut) / energyScale;
   return {
     nodes: inFileOrder(nodes, nodeInFile),
     edges: inFileOrder(edges, edgeInFile),
@@ -201,6 +236,8 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
       enthalpyIn,
       enthalpyOut,
       heatIn,
+      potentialEnergyGain,
+      energyImbalance,
       largestMassImbalance,
       largestEnergyImbalance,
       largestExitPressureMismatch,

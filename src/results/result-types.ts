@@ -60,6 +60,8 @@ export interface NodeResult {
   /** External mass flow leaving the network here [kg/s]; for a reservoir, what it takes from the
    * network (negative when it supplies). */
   demand: number;
+  /** Height above the datum [m] (0 when not given). */
+  elevation: number;
 }
 
 /** Result for one edge. */
@@ -69,7 +71,7 @@ export interface EdgeResult {
   from: string;
   to: string;
   /** Pipe model used; "adiabatic" for every component (no heat exchange). */
-  model: "adiabatic" | "isothermal";
+  model: "adiabatic" | "isothermal" | "heat-transfer";
   /** [kg/s], positive from `from` to `to`. */
   massFlow: number;
   choked: boolean;
@@ -88,8 +90,12 @@ export interface EdgeResult {
   /** State at its downstream end (in the direction of flow); for a component, in its downstream
    * connecting pipe. */
   outlet: PipeEndState;
-  /** Pressure of the upstream node minus that of the downstream node [Pa], >= 0. */
+  /** Pressure of the upstream node minus that of the downstream node [Pa]; >= 0, except on a
+   * pipe that rises or falls, where the upstream end follows the hydrostatic head. */
   pressureDrop: number;
+  /** Heat flow into the gas over the edge [W], negative when the gas loses heat; 0 for adiabatic
+   * pipes and components. */
+  heatFlow: number;
   /** A component's own figures (absent for a pipe): pressure ratio and permanent pressure loss
    * of an orifice or nozzle, opening and expansion factor of a valve, the state of a regulator
    * or check valve, leakage of a closed one. */
@@ -123,8 +129,18 @@ export interface NetworkBalance {
   /** Stagnation enthalpy flow in and out, relative to 0 K (cp T) [W]. */
   enthalpyIn: number;
   enthalpyOut: number;
-  /** Heat taken up by the gas in the pipes [W] (isothermal pipes; 0 when all are adiabatic). */
+  /**
+   * Heat taken up by the gas through pipe walls [W], negative when the gas loses heat: the sum of
+   * the edges' heatFlow (heat-transfer and isothermal pipes; 0 when all are adiabatic).
+   */
   heatIn: number;
+  /** Rise of potential energy of the gas in the pipes, sum of m g (z_out - z_in) [W]. */
+  potentialEnergyGain: number;
+  /**
+   * The first law of the whole network, (enthalpyIn + heatIn - potentialEnergyGain - enthalpyOut)
+   * over the larger of enthalpyIn and enthalpyOut [-]: closes to round-off at a solution.
+   */
+  energyImbalance: number;
   /** Largest mass imbalance of any junction over W, and of energy over W cp T_ref. */
   largestMassImbalance: number;
   largestEnergyImbalance: number;

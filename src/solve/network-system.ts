@@ -23,7 +23,7 @@
  */
 import { gasViscosity } from "../gas/gas.js";
 import type { NetworkModel } from "../model/build-network.js";
-import { type EdgeElement, evaluateEdgeFlow } from "../physics/edge-flow.js";
+import { type EdgeElement, evaluateEdgeFlow, flowsForward } from "../physics/edge-flow.js";
 import { isCreepingFlow, PipeFlowEvaluation, type PipeGas } from "../physics/pipe-flow.js";
 import type { BlockLuStructure } from "./sparse-block-lu.js";
 import { analyzeBlockPattern } from "./sparse-block-lu.js";
@@ -120,7 +120,10 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
     specificGasConstant: gasData.specificGasConstant,
     heatCapacityRatio: gasData.heatCapacityRatio,
     viscosity: (temperature: number) => gasViscosity(gasData, temperature),
+    gas: gasData,
   };
+  const elevations = new Map(doc.nodes.map((node) => [node.id, node.elevation]));
+  const elevationOf = (id: string): number => elevations.get(id) ?? 0;
   const elements: EdgeElement[] = doc.edges.map(
     (edge): EdgeElement =>
       edge.kind === "pipe"
@@ -132,6 +135,9 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
             fixedFrictionFactor: edge.frictionFactor ?? Number.NaN,
             minorLoss: edge.minorLoss,
             model: edge.model,
+            heatTransferPerLength: edge.heatTransferPerLength ?? 0,
+            surroundingTemperature: edge.surroundingTemperature ?? doc.ambientTemperature,
+            rise: elevationOf(edge.to) - elevationOf(edge.from),
           }
         : { ...edge.component },
   );
@@ -295,12 +301,21 @@ export function evaluateSystem(
     const pFrom = nodePressure(system, x, from);
     const pTo = nodePressure(system, x, to);
     const difference = nodePressureDifference(system, x, from, to);
-    const forward = difference >= 0;
+    const element = system.elements[e] as EdgeElement;
+    const evaluation = system.evaluations[e] as PipeFlowEvaluation;
+    const forward = flowsForward(
+      element,
+      system.gas,
+      pFrom,
+      pTo,
+      difference,
+      nodeTemperature(system, x, from),
+      evaluation,
+    );
     const upstream = forward ? from : to;
     const pUp = forward ? pFrom : pTo;
     const pDown = forward ? pTo : pFrom;
     const tUp = nodeTemperature(system, x, upstream);
-    const element = system.elements[e] as EdgeElement;
     const result = evaluateEdgeFlow(
       element,
       system.gas,
@@ -308,9 +323,9 @@ export function evaluateSystem(
       tUp,
       pDown,
       forward,
-      system.evaluations[e] as PipeFlowEvaluation,
+      evaluation,
       false,
-      Math.abs(difference),
+      forward ? difference : -difference,
     );
     const sign = forward ? 1 : -1;
     massFlow[e] = sign * result.massFlow;

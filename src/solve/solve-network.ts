@@ -6,7 +6,7 @@ import type { CheckedDocument } from "../input/document-types.js";
 import { InputError } from "../input/issues.js";
 import { checkedDocumentOrThrow } from "../input/read-document.js";
 import { buildNetwork, type NetworkModel } from "../model/build-network.js";
-import { type EdgeElement, evaluateEdgeFlow } from "../physics/edge-flow.js";
+import { type EdgeElement, evaluateEdgeFlow, flowsForward } from "../physics/edge-flow.js";
 import { PipeFlowEvaluation } from "../physics/pipe-flow.js";
 import { designWarnings, resultsAtState } from "../results/build-results.js";
 import type { NetworkResult, NoSolutionDiagnosis, SolverWarning } from "../results/result-types.js";
@@ -319,7 +319,15 @@ function diagnose(
       const pFrom = nodePressure(at, rescue.outcome.x, from);
       const pTo = nodePressure(at, rescue.outcome.x, to);
       const difference = nodePressureDifference(at, rescue.outcome.x, from, to);
-      const forward = difference >= 0;
+      const forward = flowsForward(
+        system.elements[e] as EdgeElement,
+        system.gas,
+        pFrom,
+        pTo,
+        difference,
+        nodeTemperature(at, rescue.outcome.x, from),
+        scratch,
+      );
       const edgeState = evaluateEdgeFlow(
         system.elements[e] as EdgeElement,
         system.gas,
@@ -329,7 +337,7 @@ function diagnose(
         forward,
         scratch,
         true,
-        Math.abs(difference),
+        forward ? difference : -difference,
       );
       const flow = Math.abs(evaluation.massFlow[e] as number);
       const capacity = edgeState.capacity;

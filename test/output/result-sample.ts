@@ -37,9 +37,30 @@ export function sampleResult(): NetworkResult {
       { code: "choked", edge: "VENT", message: "edge VENT is choked" },
     ],
     nodes: [
-      { id: "SUPPLY", kind: "reservoir", pressure: 801325, temperature: 293.15, demand: -0.25 },
-      { id: "J1", kind: "junction", pressure: 701325, temperature: 293.15, demand: 0.125 },
-      { id: "ATM", kind: "reservoir", pressure: 101325, temperature: 293.15, demand: 0.125 },
+      {
+        id: "SUPPLY",
+        kind: "reservoir",
+        pressure: 801325,
+        temperature: 293.15,
+        demand: -0.25,
+        elevation: 0,
+      },
+      {
+        id: "J1",
+        kind: "junction",
+        pressure: 701325,
+        temperature: 293.15,
+        demand: 0.125,
+        elevation: 0,
+      },
+      {
+        id: "ATM",
+        kind: "reservoir",
+        pressure: 101325,
+        temperature: 293.15,
+        demand: 0.125,
+        elevation: 0,
+      },
     ],
     edges: [
       {
@@ -57,6 +78,7 @@ export function sampleResult(): NetworkResult {
         inlet: endState(800000, 9.5, 10, 0.03),
         outlet: endState(700000, 8.3, 12, 0.035),
         pressureDrop: 100000,
+        heatFlow: 0,
       },
       {
         id: "VENT",
@@ -73,6 +95,7 @@ export function sampleResult(): NetworkResult {
         inlet: endState(690000, 8.2, 13, 0.04),
         outlet: endState(365000, 5, 313, 1),
         pressureDrop: 600000,
+        heatFlow: 0,
       },
     ],
     balance: {
@@ -82,6 +105,8 @@ export function sampleResult(): NetworkResult {
       enthalpyIn: 7.4e4,
       enthalpyOut: 7.4e4,
       heatIn: 0,
+      potentialEnergyGain: 0,
+      energyImbalance: 0,
       largestMassImbalance: 1e-15,
       largestEnergyImbalance: 1e-16,
       largestExitPressureMismatch: 0,
