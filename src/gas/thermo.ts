@@ -171,6 +171,7 @@ const TEMPERATURE_SEARCH_RANGE = { low: 1, high: 20000 };
  * @param scratch - working state record (pass one in hot loops to avoid allocation)
  * @param eosScratch - working record of the equation of state (likewise)
  * @returns T [K]; check `gasState(...).condensing` at it when the gas has an equation of state
+ * @throws RangeError if no temperature in the range searched (TEMPERATURE_SEARCH_RANGE) has h
  * @example temperatureFromEnthalpy(gasPreset("air"), 10050, 101325) // 308.153 K (cp 1004.70 J/(kg K))
  */
 export function temperatureFromEnthalpy(
@@ -195,8 +196,16 @@ export function temperatureFromEnthalpy(
     else low = temperature;
     let next = temperature - residual / state.specificHeatCp;
     if (!(next > low && next < high)) next = 0.5 * (low + high);
-    if (Math.abs(next - temperature) <= 1e-13 * temperature) return next;
+    if (Math.abs(next - temperature) <= 1e-13 * temperature) {
+      // Closed on a root, or squeezed against an end of the range with the enthalpy beyond it.
+      if (Math.abs(residual) <= 1e-9 * state.specificHeatCp * temperature) return next;
+      break;
+    }
     temperature = next;
   }
-  return temperature;
+  // Bisection alone closes the bracket to 1e-13 in about 50 halvings: reaching here means the
+  // enthalpy lies outside the range searched.
+  throw new RangeError(
+    `temperatureFromEnthalpy: no temperature between ${TEMPERATURE_SEARCH_RANGE.low} K and ${TEMPERATURE_SEARCH_RANGE.high} K has the enthalpy ${enthalpy} J/kg at ${pressure} Pa`,
+  );
 }

@@ -38,6 +38,12 @@ export interface InputRange {
  *   value in uPa s or cP read as Pa s falls outside.
  * - Sutherland constant at most 1e4 K (those of common gases lie between about 70 K and 300 K,
  *   from memory).
+ * - pipe inside diameter 0.1 mm to 10 m: below 0.1 mm a bore is a capillary of a few hundred
+ *   mean free paths of air at 1 bar (about 70 nm), where slip begins to matter at low pressure
+ *   and no pipe of a gas network is that small; above 10 m no gas duct is that wide. Common
+ *   practice, no source.
+ * - elevation -20 km to 20 km, and the heat-transfer coefficients (at most 1e5 W/(m2 K), about a
+ *   condensing-steam film, and 1e6 W/(m K)): beyond them a value is a unit slip.
  */
 export const INPUT_RANGES = Object.freeze({
   temperature: { low: 20, high: 3000, unit: "K", what: "the ideal-gas model's temperatures" },
@@ -47,6 +53,7 @@ export const INPUT_RANGES = Object.freeze({
   molarMass: { low: 1e-3, high: 1, unit: "kg/mol", what: "molar masses of gases" },
   viscosity: { low: 1e-7, high: 1e-3, unit: "Pa s", what: "viscosities of gases" },
   sutherlandConstant: { low: 0, high: 1e4, unit: "K", what: "Sutherland constants" },
+  pipeDiameter: { low: 1e-4, high: 10, unit: "m", what: "inside diameters of gas pipes" },
   elevation: { low: -2e4, high: 2e4, unit: "m", what: "elevations of gas networks" },
   heatTransferCoefficient: {
     low: 0,

@@ -475,7 +475,15 @@ function readEdge(
   }
   // Inside diameter or nominal size and schedule; material; fittings (read-components.ts).
   const extras = readPipeExtras(edge, path, reader);
-  const diameter = extras.diameter;
+  const diameter = !Number.isFinite(extras.diameter)
+    ? extras.diameter
+    : (inRange(
+        reader,
+        extras.diameter,
+        edge.diameter,
+        `${path}/${edge.diameter === undefined ? "size" : "diameter"}`,
+        INPUT_RANGES.pipeDiameter,
+      ) ?? Number.NaN);
   const checked: CheckedEdge = {
     id: edge.id,
     kind: edge.kind,

@@ -320,7 +320,7 @@ function evaluateAdiabatic(
   };
   // Known choked last time, or no flow: the capacity decides, solve it first.
   if (needCapacity || out.choked || pd >= p0) solveCapacity();
-  if (setCreepingFlow(pipe, gas, p0, t0, pd, drop, mu, muSlope, area, p0, out)) return;
+  if (setCreepingFlow(pipe, gas, p0, t0, pd, drop, mu, muSlope, area, p0, 1, out)) return;
 
   // Subsonic exit: g(M1) = ln(p_exit/p0) - ln(pd/p0) = 0 on (0, M1c). Without the capacity the
   // bracket is (0, 1) and the pipe's capacity shows up as a root that drifts to the sonic exit.
@@ -579,11 +579,13 @@ export function isCreepingFlow(drop: number, upstreamPressure: number): boolean 
 
 /**
  * Small-drop law: for a pressure drop below 1e-10 of the pressure the gas is incompressible to
- * that accuracy, and the plenum-to-plenum relation of either model tends to
+ * that accuracy, and the plenum-to-plenum relation of each model tends to
  *
- *   p0 - pd = (1 + fD(Re) L/D + K) G^2 / (2 rho),   rho = p0 / (R T0),   Re = G D / mu,
+ *   p0 - pd = (e + fD(Re) L/D + K) G^2 / (2 rho),   rho = p0 / (R T0),   Re = G D / mu,
  *
- * the dynamic head of the entry (the 1) plus friction and minor losses; laminar, fD = 64/Re, it
+ * friction and minor losses plus, for the adiabatic model, the dynamic head of the entry
+ * (`entryHead` e = 1: its pipe starts from the plenum's stagnation state); the isothermal model
+ * starts at the plenum pressure and has no entry head (e = 0). Laminar, fD = 64/Re, it
  * is the Hagen-Poiseuille law m = rho D^2 A (p0 - pd) / (32 mu L) plus the second-order terms.
  * Solved for G by a safeguarded Newton iteration from the laminar root (the lowest friction, so
  * an upper bound). Used where the compressible relations would have to resolve ln(pd/p0) within
@@ -603,6 +605,7 @@ function setCreepingFlow(
   muSlope: number,
   area: number,
   inletPressure: number,
+  entryHead: 0 | 1,
   out: PipeFlowEvaluation,
 ): boolean {
   if (!(drop <= CREEPING_PRESSURE_RATIO * p0)) return false;
@@ -610,11 +613,11 @@ function setCreepingFlow(
   const reynoldsPerFlux = pipe.diameter / mu;
   // Laminar: drop = a G + b G^2.
   const a = (32 * mu * pipe.length) / (density * pipe.diameter * pipe.diameter);
-  const b = (1 + pipe.minorLoss) / (2 * density);
+  const b = (entryHead + pipe.minorLoss) / (2 * density);
   const positive = Math.max(drop, 0);
   let flux = (2 * positive) / (a + Math.sqrt(a * a + 4 * b * positive));
   const friction = out.friction;
-  // Slope dF/dG of F(G) = (1 + X(Re)) G^2 / (2 rho), and dF/dRe at fixed G.
+  // Slope dF/dG of F(G) = (e + X(Re)) G^2 / (2 rho), and dF/dRe at fixed G.
   let slope = a;
   let reynoldsSlope = 0;
   if (flux > 0) {
@@ -622,9 +625,9 @@ function setCreepingFlow(
     for (let iteration = 0; iteration < 60; iteration++) {
       const reynolds = flux * reynoldsPerFlux;
       frictionParameter(pipe, reynolds, friction);
-      const value = ((1 + friction.value) * flux * flux) / (2 * density) - positive;
+      const value = ((entryHead + friction.value) * flux * flux) / (2 * density) - positive;
       reynoldsSlope = (friction.slope * flux * flux) / (2 * density);
-      slope = ((1 + friction.value) * flux) / density + reynoldsSlope * reynoldsPerFlux;
+      slope = ((entryHead + friction.value) * flux) / density + reynoldsSlope * reynoldsPerFlux;
       if (value > 0) high = flux;
       let next = flux - value / slope;
       if (!(next > 0 && next <= high)) next = 0.5 * (flux + (value > 0 ? 0 : high));
@@ -635,7 +638,7 @@ function setCreepingFlow(
     const reynolds = flux * reynoldsPerFlux;
     frictionParameter(pipe, reynolds, friction);
     reynoldsSlope = (friction.slope * flux * flux) / (2 * density);
-    slope = ((1 + friction.value) * flux) / density + reynoldsSlope * reynoldsPerFlux;
+    slope = ((entryHead + friction.value) * flux) / density + reynoldsSlope * reynoldsPerFlux;
   }
   const massFlow = flux * area;
   const reynolds = flux * reynoldsPerFlux;
@@ -712,7 +715,7 @@ function evaluateIsothermal(
   // Known choked last time, or no flow or no back-pressure: the capacity decides, solve it first.
   if (needCapacity || out.choked || pd >= p1 || !(pd > 0)) solveCapacity();
 
-  if (setCreepingFlow(pipe, gas, p1, t, pd, drop, mu, muSlope, area, p1, out)) return;
+  if (setCreepingFlow(pipe, gas, p1, t, pd, drop, mu, muSlope, area, p1, 0, out)) return;
 
   // Subsonic: Newton on G in (0, G*); without the capacity, in (0, infinity) and the pipe's
   // capacity shows as an exit Mach number at or above 1/sqrt(gamma).

@@ -28,6 +28,8 @@ import type { EdgeResult, NetworkBalance, NodeResult, SolverWarning } from "./re
  * with a margin: the exit-pressure check allows what this moves the exit pressure by.
  */
 const FLOW_ACCURACY = 1e-12;
+/** Largest part of an exit-pressure mismatch that the flow's accuracy may explain, relative. */
+const CONDITIONING_CEILING = 1e-3;
 
 /** Results of the nodes and edges at a state, with the balance recomputed from scratch. */
 export interface StateResults {
@@ -120,8 +122,11 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
       if (!Number.isNaN(exitPressure)) {
         // Less what the flow's own accuracy explains: near choke the exit pressure moves by a
         // large amount for a tiny change of flow (its slope dm/dpd goes to zero).
-        const conditioning =
-          (FLOW_ACCURACY * flow) / Math.abs(evaluation.dMassFlowdDownstreamPressure);
+        // Capped at 1e-3 of the pressure, so that a vanishing slope cannot switch the check off.
+        const conditioning = Math.min(
+          (FLOW_ACCURACY * flow) / Math.abs(evaluation.dMassFlowdDownstreamPressure),
+          CONDITIONING_CEILING * pDown,
+        );
         const mismatch = Math.max(Math.abs(exitPressure - pDown) - conditioning, 0) / pDown;
         largestExitPressureMismatch = Math.max(largestExitPressureMismatch, mismatch);
       }

@@ -68,12 +68,12 @@ const MIN_STEP = 1e-6;
  * solve each step exactly.
  *
  * The step's tolerance (relative residual of J s = -R) follows Eisenstat and Walker's second
- * choice, eta = 0.9 (|R_k| / |R_k-1|)^2, within [1e-10, 1e-2]: a loose step while far from the
+ * choice, eta = 0.9 (|R_k| / |R_k-1|)^2, within [1e-10, 1e-3]: a loose step while far from the
  * solution, where Newton's model is poor anyway, and an exact one (1e-10) as the residual falls,
  * which keeps Newton's fast final convergence. Convergence is judged on the residuals alone, so
  * the solution does not depend on it. Source: S. C. Eisenstat and H. F. Walker, "Choosing the
  * forcing terms in an inexact Newton method", SIAM J. Sci. Comput. 17 (1996) 16-32, choice 2
- * (there with a safeguard; here the ceiling of 1e-2 plays its part).
+ * (there with a safeguard; here the ceiling of 1e-3 plays its part).
  */
 const FROZEN_STEP_ITERATIONS = 12;
 const STEP_TOLERANCE_CEILING = 1e-3;

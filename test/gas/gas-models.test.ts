@@ -530,6 +530,13 @@ describe("Peng-Robinson equation of state", () => {
     }
   });
 
+  it("refuses an enthalpy that no temperature in its search range has", () => {
+    const gas = gasPreset("nitrogen", { heatCapacity: "nasa7" });
+    // Below the enthalpy at 1 K (about -3e5 J/kg for nitrogen from 298.15 K down): none.
+    expect(() => temperatureFromEnthalpy(gas, -1e7, 1e5)).toThrow(RangeError);
+    expect(() => temperatureFromEnthalpy(gas, 1e12, 1e5)).toThrow(/no temperature between/);
+  });
+
   it("combines mixtures of presets with k_ij = 0 between them, as one list of components", () => {
     const mixture = gasMixture([
       { gas: gasPreset("air", { equationOfState: "peng-robinson" }), moleFraction: 0.5 },

@@ -215,11 +215,22 @@ describe("another order of nodes and edges in the file", () => {
       expect(resultJson(sortedLists(other)), `seed ${item.seed}`).toBe(
         resultJson(sortedLists(result)),
       );
-      // And in the file's order: the results follow the lists of the document solved.
+      // And in the file's order: the results follow the lists of the document solved, and so
+      // do the limiting edges of a diagnosis (each list in the order of the document's edges).
+      const document = reordered(item.document, item.seed + 2000);
       expect(
         other.nodes.map((node) => node.id),
         `seed ${item.seed}`,
-      ).toEqual(reordered(item.document, item.seed + 2000).nodes.map((node) => node.id));
+      ).toEqual(document.nodes.map((node) => node.id));
+      expect(
+        other.edges.map((edge) => edge.id),
+        `seed ${item.seed}`,
+      ).toEqual(document.edges.map((edge) => edge.id));
+      if (other.diagnosis !== undefined) {
+        const position = new Map(document.edges.map((edge, index) => [edge.id, index]));
+        const positions = other.diagnosis.limitingEdges.map((edge) => position.get(edge.id) ?? -1);
+        expect(positions, `seed ${item.seed}`).toEqual([...positions].sort((a, b) => a - b));
+      }
     }
     expect([...statuses].sort()).toEqual(["converged", "no-solution", "not-converged"]);
   });
