@@ -1,7 +1,6 @@
 /**
  * Physically impossible inputs are input errors that name the value, its place and the range
- * (INPUT_RANGES in src/input/read-document.ts, reasons in its comment and docs/_drafts/
- * hardening.md): a reservoir at 2 K, a pressure of 2000 bar, a barometric pressure given in
+ * (INPUT_RANGES in src/input/input-ranges.ts, reasons in its comment and docs/hardening.md): a reservoir at 2 K, a pressure of 2000 bar, a barometric pressure given in
  * mbar as Pa, a molar mass in g/mol as kg/mol, a viscosity in uPa s as Pa s, a demand of 1e6
  * kg/s. Values at the ends of each range are accepted.
  */
@@ -164,6 +163,26 @@ describe("plausible ranges of the ideal-gas model", () => {
     expect((error as InputError).issues.map((issue) => issue.path)).toEqual(["/gas/molarMass"]);
   });
 
+  it("refuses a pipe bore below 0.1 mm or above 10 m, accepts the ends", () => {
+    const withDiameter = (diameter: string) =>
+      ({
+        ...network(),
+        // Smooth: the default roughness is beyond the friction laws' range in a 0.1 mm bore.
+        edges: [
+          { id: "P", kind: "pipe", from: "R", to: "J", length: "20 m", diameter, roughness: 0 },
+        ],
+      }) as NetworkDocument;
+    // A bore in m written as mm (0.05 mm), and one in mm written as m (52.5 m).
+    for (const diameter of ["0.05 mm", "52.5 m"]) {
+      const issues = issuesOf(withDiameter(diameter));
+      expect(issues.map((issue) => issue.path)).toEqual(["/edges/0/diameter"]);
+      expect(issues[0]?.message).toContain("inside diameters of gas pipes: 1e-4 to 10 m");
+    }
+    // The ends themselves are accepted.
+    expect(checkNetwork(withDiameter("0.1 mm")).ok).toBe(true);
+    expect(checkNetwork(withDiameter("10 m")).ok).toBe(true);
+  });
+
   it("publishes its ranges (the numbers this file checks)", () => {
     expect(INPUT_RANGES.temperature).toMatchObject({ low: 20, high: 3000, unit: "K" });
     expect(INPUT_RANGES.pressure).toMatchObject({ low: 100, high: 1e8, unit: "Pa" });
@@ -171,5 +190,6 @@ describe("plausible ranges of the ideal-gas model", () => {
     expect(INPUT_RANGES.demand).toMatchObject({ low: -1e5, high: 1e5 });
     expect(INPUT_RANGES.molarMass).toMatchObject({ low: 1e-3, high: 1 });
     expect(INPUT_RANGES.viscosity).toMatchObject({ low: 1e-7, high: 1e-3 });
+    expect(INPUT_RANGES.pipeDiameter).toMatchObject({ low: 1e-4, high: 10, unit: "m" });
   });
 });
