@@ -16,7 +16,7 @@ import type {
   SolverSettings,
 } from "./document-types.js";
 import { INPUT_RANGES, inRange } from "./input-ranges.js";
-import { InputError, type InputIssue, jsonPointer, pointerSegment, sortIssues } from "./issues.js";
+import { InputError, type InputIssue, jsonPointer, sortIssues } from "./issues.js";
 import { firstJsonSyntaxError } from "./json-syntax-error.js";
 import { networkSchema } from "./network-schema.js";
 import { parseQuantity, type QuantityKind } from "./quantity.js";
