@@ -100,12 +100,34 @@ export function edgeMomentumFlux(edge: EdgeResult): number {
 }
 
 /**
+ * Whether the edge table shows the heat columns (outlet temperature, heat flow): when any edge
+ * exchanges heat (heat-transfer or isothermal pipes).
+ */
+export function showsHeat(edges: readonly EdgeResult[]): boolean {
+  return edges.some((edge) => edge.heatFlow !== 0 || edge.model === "heat-transfer");
+}
+
+/**
  * Columns of the edge table. Inlet and outlet are the ends in the direction of flow; the mass
- * flow is signed (negative: from `to` to `from`).
+ * flow is signed (negative: from `to` to `from`). With `heat`, two more before the status: the
+ * outlet (static) temperature and the heat flow into the gas (negative: the gas loses heat).
  *
  * @param units - the unit set to show values in
+ * @param heat - add the heat columns (see {@link showsHeat})
  */
-export function edgeColumns(units: UnitSetName): ResultColumn<EdgeResult>[] {
+export function edgeColumns(units: UnitSetName, heat = false): ResultColumn<EdgeResult>[] {
+  const heatColumns = heat
+    ? [
+        numberColumn(
+          "T out",
+          "outlet temperature",
+          units,
+          "temperature",
+          (edge: EdgeResult) => edge.outlet.temperature,
+        ),
+        numberColumn("Q", "heat flow", units, "heatFlow", (edge: EdgeResult) => edge.heatFlow),
+      ]
+    : [];
   return [
     textColumn("id", "id", (edge) => edge.id),
     textColumn("from", "from", (edge) => edge.from),
@@ -136,6 +158,7 @@ export function edgeColumns(units: UnitSetName): ResultColumn<EdgeResult>[] {
     numberColumn("Re", "Reynolds", units, null, (edge) => edge.reynolds, 4),
     numberColumn("fD", "Darcy friction factor", units, null, (edge) => edge.frictionFactor, 4),
     numberColumn("choke ratio", "choke ratio", units, null, (edge) => edge.chokeRatio, 4),
+    ...heatColumns,
     textColumn("status", "status", (edge) => (edge.choked ? CHOKED_MARKER : "")),
   ];
 }

@@ -9,7 +9,7 @@
 import type { NetworkResult } from "../results/result-types.js";
 import { componentCsvColumns, componentEdges } from "./component-columns.js";
 import type { UnitSetName } from "./display-units.js";
-import { edgeColumns, nodeColumns, type ResultColumn } from "./result-columns.js";
+import { edgeColumns, nodeColumns, type ResultColumn, showsHeat } from "./result-columns.js";
 import { NOT_A_SOLUTION, notASolutionReason } from "./result-table.js";
 
 /** Which table a CSV holds. */
@@ -77,7 +77,7 @@ export function resultCsv(result: NetworkResult, options: CsvOptions = {}): stri
       ? csvRows(nodeColumns(result, units), result.nodes)
       : table === "components"
         ? csvRows(componentCsvColumns(units), componentEdges(result.edges))
-        : csvRows(edgeColumns(units), result.edges);
+        : csvRows(edgeColumns(units, showsHeat(result.edges)), result.edges);
   const reason = notASolutionReason(result);
   if (reason !== undefined)
     lines.unshift(`# ${NOT_A_SOLUTION}: ${reason.replace(/[\r\n]+/g, " ")}`);

@@ -9,7 +9,7 @@ import type { NetworkResult } from "../results/result-types.js";
 import { COMPONENT_GROUPS, componentEdges, componentGroupColumns } from "./component-columns.js";
 import { displayUnit, type UnitSetName } from "./display-units.js";
 import { formatNumber } from "./format-number.js";
-import { edgeColumns, nodeColumns, type ResultColumn } from "./result-columns.js";
+import { edgeColumns, nodeColumns, type ResultColumn, showsHeat } from "./result-columns.js";
 
 /** The one-line caution printed under every report. */
 export const ENGINEERING_CAUTION =
@@ -108,7 +108,7 @@ export function nodeTable(result: NetworkResult, units: UnitSetName): TextTable 
 
 /** The edge table of a result in a unit set. */
 export function edgeTable(result: NetworkResult, units: UnitSetName): TextTable {
-  return textTable("Edges", edgeColumns(units), result.edges);
+  return textTable("Edges", edgeColumns(units, showsHeat(result.edges)), result.edges);
 }
 
 /**
