@@ -2,12 +2,14 @@
  * The profile of the report: the path it follows on the example networks (checked against the
  * flows that docs/examples/README.md describes), its points, and the charts' choke limits.
  */
+
+import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { findProfilePath, type ProfilePath } from "../../src/output/report/profile-path.js";
 import { interiorState, profilePoints } from "../../src/output/report/profile-points.js";
 import { profileChartsSvg } from "../../src/output/report/profile-svg.js";
 import type { EdgeResult } from "../../src/results/result-types.js";
-import { example, exampleJson } from "./report-examples.js";
+import { example, exampleJson, solved } from "./report-examples.js";
 
 function pathOf(
   name: Parameters<typeof example>[0],
@@ -201,5 +203,30 @@ describe("profileChartsSvg", () => {
     expect(pressure).toContain("pressure [psia]");
     expect(pressure).toContain("distance along the path [ft]");
     expect(pressure).not.toContain("xmlns");
+  });
+});
+
+describe("profile of heat-transfer pipes", () => {
+  it("draws only the two ends of a heat-transfer pipe: the closed forms do not apply inside", () => {
+    const { document, result } = solved(
+      JSON.parse(
+        readFileSync(
+          new URL("../../docs/examples/winter-vent-riser.json", import.meta.url),
+          "utf8",
+        ),
+      ),
+    );
+    const found = findProfilePath(document, result, {});
+    if (!found.ok) throw new Error(found.message);
+    const points = profilePoints(document, result, found.path);
+    const heatPipes = new Set(
+      result.edges.filter((edge) => edge.model === "heat-transfer").map((edge) => edge.id),
+    );
+    const onPath = points.filter((point) => heatPipes.has(point.id));
+    // The example's path runs through heat-transfer pipes (every pipe of it is one).
+    expect(onPath.length).toBeGreaterThan(0);
+    expect(onPath.some((point) => point.place === "interior")).toBe(false);
+    expect(onPath.some((point) => point.place === "entry")).toBe(true);
+    expect(onPath.some((point) => point.place === "exit")).toBe(true);
   });
 });

@@ -72,7 +72,8 @@ export interface InteriorState {
  * @param gamma - heat capacity ratio [-]
  * @param fraction - s in [0, 1]
  * @returns the state, or undefined when the pipe carries no flow or the relations do not apply
- *   (a solve that did not converge can leave states that fit no Fanno line)
+ *   (a heat-transfer pipe; a solve that did not converge can leave states that fit no Fanno
+ *   line)
  * @remarks Sources of the relations: A. H. Shapiro, The Dynamics and Thermodynamics of
  *   Compressible Fluid Flow, Vol. I, Ronald Press, 1953, ch. 6 (Fanno and isothermal flow).
  */
@@ -84,6 +85,9 @@ export function interiorState(
   gamma: number,
   fraction: number,
 ): InteriorState | undefined {
+  // Heat exchange and elevation change the state along the pipe in ways neither closed form
+  // follows: its profile shows only its two ends (the solver's own integration).
+  if (edge.model === "heat-transfer") return undefined;
   const inletMach = edge.inlet.mach;
   const parameter = (edge.frictionFactor * length) / diameter + minorLoss;
   if (!(inletMach > 0 && Number.isFinite(parameter) && parameter >= 0)) return undefined;
