@@ -19,6 +19,7 @@ import {
   nodePressureDifference,
   nodeTemperature,
   pressureUnknown,
+  withPressureReferences,
 } from "./network-system.js";
 import { type NewtonOutcome, newtonSolve, ROUND_OFF_CEILING } from "./newton.js";
 
@@ -119,11 +120,13 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
     ...(limitMs !== undefined && now !== undefined ? { deadline: now() + limitMs, now } : {}),
   };
   const model = modelOf(checked);
-  const system = createNetworkSystem(model);
-
-  const start = options.initialResult
-    ? (stateFromResult(system, options.initialResult) ?? initialGuess(system))
-    : initialGuess(system);
+  const built = createNetworkSystem(model);
+  const guess = options.initialResult
+    ? (stateFromResult(built, options.initialResult) ?? initialGuess(built))
+    : initialGuess(built);
+  // Each junction's pressure unknown is then its offset from its own first-guess pressure
+  // (defect B3), fixed for the rest of the solve (the continuation's systems share them).
+  const { system, x: start } = withPressureReferences(built, guess);
   let outcome = newtonSolve(system, start, newtonOptions);
   let iterations = outcome.iterations;
   const warnings: SolverWarning[] = checked.notes.map((note) => ({
@@ -229,7 +232,7 @@ function stateFromResult(
     const node = nodes[system.model.junctionNodes[j] as number];
     const old = node ? byId.get(node.id) : undefined;
     if (!old || !(old.pressure > 0) || !(old.temperature > 0)) return undefined;
-    x[2 * j] = pressureUnknown(system, old.pressure);
+    x[2 * j] = pressureUnknown(system, j, old.pressure);
     x[2 * j + 1] = old.temperature / system.temperatureScale;
   }
   return x;
