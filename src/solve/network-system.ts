@@ -232,27 +232,63 @@ export function pressureUnknown(system: NetworkSystem, junction: number, pressur
 }
 
 /**
- * The same state with every junction's reference pressure moved to its pressure in x, and x
- * re-expressed in the new references (its pressure unknowns become 0, up to the digits below the
- * rounding of p that the old offsets held: (p_old,ref - p_new,ref + p_old,ref x) / p_new,ref keeps
- * them). The returned system shares everything else with `system`.
+ * Largest relative pressure difference across an edge whose two junctions share a reference
+ * pressure (see {@link withPressureReferences}).
+ */
+export const REFERENCE_GROUP_DROP = 1e-3;
+
+/**
+ * The same state with new junction reference pressures, and x re-expressed in them. Junctions
+ * joined by edges with a drop of at most REFERENCE_GROUP_DROP of the pressure in x form a group
+ * that shares one reference, the highest pressure in the group: two equal pressures of a group
+ * then have exactly equal unknowns and a difference of exactly 0 (a network at rest stays at
+ * rest), and each pressure is resolved to 1e-16 of its distance from the group's highest, never
+ * coarser than from the highest reservoir pressure. The new offsets are
+ * (p_ref,old - p_ref,new + p_ref,old x) / p_ref,new, which keeps the digits below the rounding of
+ * p that the old offsets held. The returned system shares everything else with `system`.
  */
 export function withPressureReferences(
   system: NetworkSystem,
   x: Float64Array,
 ): { system: NetworkSystem; x: Float64Array } {
-  const pressureReference = new Float64Array(system.junctionCount);
+  const { model, junctionCount } = system;
+  const pressure = new Float64Array(junctionCount);
+  const group = new Int32Array(junctionCount);
+  for (let j = 0; j < junctionCount; j++) {
+    pressure[j] = nodePressure(system, x, model.junctionNodes[j] as number);
+    group[j] = j;
+  }
+  const root = (j: number): number => {
+    let r = j;
+    while (group[r] !== r) r = group[r] as number;
+    return r;
+  };
+  for (let e = 0; e < system.edgeCount; e++) {
+    const a = model.unknownIndex[model.edgeFrom[e] as number] as number;
+    const b = model.unknownIndex[model.edgeTo[e] as number] as number;
+    if (a < 0 || b < 0) continue;
+    const pa = pressure[a] as number;
+    const pb = pressure[b] as number;
+    if (Math.abs(pa - pb) <= REFERENCE_GROUP_DROP * Math.max(pa, pb)) {
+      group[root(a)] = root(b);
+    }
+  }
+  const highest = new Float64Array(junctionCount);
+  for (let j = 0; j < junctionCount; j++) {
+    const r = root(j);
+    highest[r] = Math.max(highest[r] as number, pressure[j] as number);
+  }
+  const pressureReference = new Float64Array(junctionCount);
   const moved = Float64Array.from(x);
-  for (let j = 0; j < system.junctionCount; j++) {
+  for (let j = 0; j < junctionCount; j++) {
     const old = system.pressureReference[j] as number;
-    const offset = x[2 * j] as number;
-    const reference = old + old * offset;
+    const reference = highest[root(j)] as number;
     if (!(reference > 0) || !Number.isFinite(reference)) {
       pressureReference[j] = old;
       continue;
     }
     pressureReference[j] = reference;
-    moved[2 * j] = (old - reference + old * offset) / reference;
+    moved[2 * j] = (old - reference + old * (x[2 * j] as number)) / reference;
   }
   return { system: { ...system, pressureReference }, x: moved };
 }

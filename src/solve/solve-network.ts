@@ -124,8 +124,9 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
   const guess = options.initialResult
     ? (stateFromResult(built, options.initialResult) ?? initialGuess(built))
     : initialGuess(built);
-  // Each junction's pressure unknown is then its offset from its own first-guess pressure
-  // (defect B3), fixed for the rest of the solve (the continuation's systems share them).
+  // Each junction's pressure unknown is then its offset from the highest first-guess pressure of
+  // its group of close junctions (defect B3), fixed for the rest of the solve (the
+  // continuation's systems share the references).
   const { system, x: start } = withPressureReferences(built, guess);
   let outcome = newtonSolve(system, start, newtonOptions);
   let iterations = outcome.iterations;
