@@ -50,8 +50,8 @@ export const CHOKED_SLOPE_FRACTION = 1e-6;
  * follows from the difference of its two end pressures, so it carries a round-off of about its
  * pressure slopes times this times the resolution of the pressures: the pressure itself where
  * the relation takes the rounded pressures (where a drop is 1e-9 of the pressure, the flow is
- * known to only about 1e-7 of itself, however well Newton has converged), the offset from the
- * pressure scale where it takes the drop from the offsets (creeping flow).
+ * known to only about 1e-7 of itself, however well Newton has converged), the pressure's
+ * distance from its reference where it takes the drop from the offsets (small drops).
  */
 export const FLOW_ROUNDING = 4 * Number.EPSILON;
 
@@ -242,8 +242,8 @@ export const REFERENCE_GROUP_DROP = 1e-3;
  * joined by edges with a drop of at most REFERENCE_GROUP_DROP of the pressure in x form a group
  * that shares one reference, the highest pressure in the group: two equal pressures of a group
  * then have exactly equal unknowns and a difference of exactly 0 (a network at rest stays at
- * rest), and each pressure is resolved to 1e-16 of its distance from the group's highest, never
- * coarser than from the highest reservoir pressure. The new offsets are
+ * rest), and each pressure is resolved to 1e-16 of its distance from the group's highest (at
+ * the start; later from wherever that reference is). The new offsets are
  * (p_ref,old - p_ref,new + p_ref,old x) / p_ref,new, which keeps the digits below the rounding of
  * p that the old offsets held. The returned system shares everything else with `system`.
  */
