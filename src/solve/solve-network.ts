@@ -125,8 +125,8 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
     ? (stateFromResult(built, options.initialResult) ?? initialGuess(built))
     : initialGuess(built);
   // Each junction's pressure unknown is then its offset from the highest first-guess pressure of
-  // its group of close junctions (defect B3), fixed for the rest of the solve (the
-  // continuation's systems share the references).
+  // its group of close junctions (defect B3), fixed for this Newton run (a continuation takes
+  // its own, and the result is built in the system whose state it is).
   const referenced = withPressureReferences(built, guess);
   let system = referenced.system;
   const start = referenced.x;
@@ -247,7 +247,7 @@ interface ContinuationOutcome {
   scale: number;
   /**
    * The system at the stated demands with the continuation's own pressure references (from the
-   * solver's first guess), in which `outcome.x` is expressed.
+   * first guess of the network at rest), in which `outcome.x` is expressed.
    */
   system: NetworkSystem;
   outcome: NewtonOutcome | undefined;
