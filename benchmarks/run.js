@@ -186,7 +186,7 @@ async function child(edges, topology, seed) {
   const read = readNetworkDocument(document);
   const built = buildNetwork(read.document);
   const networkSystem = system.createNetworkSystem(built.model);
-  const x = stateOf(networkSystem, result, read.document, built.model);
+  const x = stateOf(system, networkSystem, result, read.document, built.model);
   system.evaluateSystem(networkSystem, x, false);
   const repeats = 5;
   let evaluationMs = Number.POSITIVE_INFINITY;
@@ -239,12 +239,12 @@ async function child(edges, topology, seed) {
 }
 
 /** Scaled unknowns of a result (2 per junction), as the solver holds them. */
-function stateOf(networkSystem, result, document, model) {
+function stateOf(system, networkSystem, result, document, model) {
   const x = new Float64Array(2 * networkSystem.junctionCount);
   const byId = new Map(result.nodes.map((node) => [node.id, node]));
   for (let j = 0; j < networkSystem.junctionCount; j++) {
     const node = byId.get(document.nodes[model.junctionNodes[j]].id);
-    x[2 * j] = node.pressure / networkSystem.pressureScale;
+    x[2 * j] = system.pressureUnknown(networkSystem, j, node.pressure);
     x[2 * j + 1] = node.temperature / networkSystem.temperatureScale;
   }
   return x;

@@ -190,7 +190,7 @@ export function initialGuess(system: NetworkSystem): Float64Array {
   const x = new Float64Array(2 * junctionCount);
   for (let j = 0; j < junctionCount; j++) {
     const node = model.junctionNodes[j] as number;
-    x[2 * j] = pressureUnknown(system, Math.sqrt(squared[node] as number));
+    x[2 * j] = pressureUnknown(system, j, Math.sqrt(squared[node] as number));
     const t = temperatures[2 * j + 1] as number;
     x[2 * j + 1] = (Number.isFinite(t) && t > 0 ? t : supplyTemperature) / system.temperatureScale;
   }

@@ -1,8 +1,9 @@
 /**
  * The nonlinear system of a network: unknowns, residuals and their Jacobian.
  *
- * Unknowns: the pressure and the (stagnation) temperature of every junction, scaled by a
- * reference pressure and a reference temperature. Reservoirs are fixed.
+ * Unknowns: the pressure and the (stagnation) temperature of every junction, the pressure as an
+ * offset from the junction's own reference pressure, p / p_ref,j - 1, the temperature over a
+ * reference temperature. Reservoirs are fixed.
  *
  * Residuals per junction j (docs/model.md, "Network equations"):
  *   mass:   sum of edge flows into j - demand_j = 0,                     scaled by throughput W
@@ -49,8 +50,8 @@ export const CHOKED_SLOPE_FRACTION = 1e-6;
  * follows from the difference of its two end pressures, so it carries a round-off of about its
  * pressure slopes times this times the resolution of the pressures: the pressure itself where
  * the relation takes the rounded pressures (where a drop is 1e-9 of the pressure, the flow is
- * known to only about 1e-7 of itself, however well Newton has converged), the offset from the
- * pressure scale where it takes the drop from the offsets (creeping flow).
+ * known to only about 1e-7 of itself, however well Newton has converged), the pressure's
+ * distance from its reference where it takes the drop from the offsets (small drops).
  */
 export const FLOW_ROUNDING = 4 * Number.EPSILON;
 
@@ -63,16 +64,21 @@ export interface NetworkSystem {
   elements: EdgeElement[];
   gas: PipeGas;
   /**
-   * Reference scales of the unknowns. A junction's pressure unknown is its offset from the
-   * pressure scale, p / pressureScale - 1 (see {@link pressureUnknown}); its temperature unknown
-   * is T / temperatureScale.
+   * Reference scales of the unknowns. A junction's pressure unknown is its offset from its own
+   * reference pressure, p / p_ref,j - 1 (see {@link pressureUnknown} and
+   * {@link withPressureReferences}); its temperature unknown is T / temperatureScale.
+   * `pressureScale` is the highest reservoir pressure [Pa].
    */
   pressureScale: number;
   temperatureScale: number;
+  /**
+   * Per junction (by unknown index), its reference pressure p_ref,j [Pa]: the highest reservoir
+   * pressure when the system is built, the first guess's pressure once
+   * {@link withPressureReferences} has moved the unknowns there. Fixed during a solve.
+   */
+  pressureReference: Float64Array;
   /** Fixed state of each node (NaN for junctions). */
   fixedPressure: Float64Array;
-  /** Per reservoir, its pressure as an offset like a junction's unknown (NaN for junctions). */
-  fixedPressureOffset: Float64Array;
   fixedTemperature: Float64Array;
   /** Demand per node [kg/s] (0 for reservoirs); injection temperature per node (NaN if none). */
   demand: Float64Array;
@@ -197,8 +203,8 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
     gas,
     pressureScale,
     temperatureScale,
+    pressureReference: new Float64Array(junctionCount).fill(pressureScale),
     fixedPressure,
-    fixedPressureOffset: fixedPressure.map((value) => value / pressureScale - 1),
     fixedTemperature,
     demand,
     injectionTemperature,
@@ -210,34 +216,113 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
 }
 
 /**
- * The scaled unknown of a junction pressure p [Pa]: its offset from the pressure scale,
- * p / pressureScale - 1. Junctions near the highest supply pressure then have small unknowns,
- * so their pressures, and above all the differences between them, keep digits that p itself
- * cannot hold: a drop of 1e-6 Pa at 10 bar is ten thousand units in the last place of p, and
- * the flow through a wide header that it drives would be known to only 1e-4 of itself
- * (hardening defect B2). Held as offsets, the drop is known to about 1e-8 of itself.
+ * The scaled unknown of junction j's pressure p [Pa]: its offset from the junction's reference
+ * pressure, p / p_ref,j - 1. With the reference near the junction's pressure the unknown is
+ * small, so the pressure, and above all the difference between two close pressures, keeps digits
+ * that p itself cannot hold: a drop of 1e-6 Pa at 10 bar is ten thousand units in the last place
+ * of p, and the flow through a wide header that it drives would be known to only 1e-4 of itself
+ * (hardening defect B2). Offsets from one scale for every junction (the highest reservoir
+ * pressure p_S) resolve a pressure to 1e-16 of p_S only, too coarse for junctions at 0.4 p_S
+ * (defect B3); offsets from each junction's own first-guess pressure resolve it to 1e-16 of its
+ * distance from that guess.
  */
-export function pressureUnknown(system: NetworkSystem, pressure: number): number {
-  return pressure / system.pressureScale - 1;
+export function pressureUnknown(system: NetworkSystem, junction: number, pressure: number): number {
+  const reference = system.pressureReference[junction] as number;
+  return (pressure - reference) / reference;
+}
+
+/**
+ * Largest relative pressure difference across an edge whose two junctions share a reference
+ * pressure (see {@link withPressureReferences}).
+ */
+export const REFERENCE_GROUP_DROP = 1e-3;
+
+/**
+ * The same state with new junction reference pressures, and x re-expressed in them. Junctions
+ * joined by edges with a drop of at most REFERENCE_GROUP_DROP of the pressure in x form a group
+ * that shares one reference, the highest pressure in the group: two equal pressures of a group
+ * then have exactly equal unknowns and a difference of exactly 0 (a network at rest stays at
+ * rest), and each pressure is resolved to 1e-16 of its distance from the group's highest (at
+ * the start; later from wherever that reference is). The new offsets are
+ * (p_ref,old - p_ref,new + p_ref,old x) / p_ref,new, which keeps the digits below the rounding of
+ * p that the old offsets held. The returned system shares everything else with `system`.
+ */
+export function withPressureReferences(
+  system: NetworkSystem,
+  x: Float64Array,
+): { system: NetworkSystem; x: Float64Array } {
+  const { model, junctionCount } = system;
+  const pressure = new Float64Array(junctionCount);
+  const group = new Int32Array(junctionCount);
+  for (let j = 0; j < junctionCount; j++) {
+    pressure[j] = nodePressure(system, x, model.junctionNodes[j] as number);
+    group[j] = j;
+  }
+  const root = (j: number): number => {
+    let r = j;
+    while (group[r] !== r) r = group[r] as number;
+    return r;
+  };
+  for (let e = 0; e < system.edgeCount; e++) {
+    const a = model.unknownIndex[model.edgeFrom[e] as number] as number;
+    const b = model.unknownIndex[model.edgeTo[e] as number] as number;
+    if (a < 0 || b < 0) continue;
+    const pa = pressure[a] as number;
+    const pb = pressure[b] as number;
+    if (Math.abs(pa - pb) <= REFERENCE_GROUP_DROP * Math.max(pa, pb)) {
+      group[root(a)] = root(b);
+    }
+  }
+  const highest = new Float64Array(junctionCount);
+  for (let j = 0; j < junctionCount; j++) {
+    const r = root(j);
+    highest[r] = Math.max(highest[r] as number, pressure[j] as number);
+  }
+  const pressureReference = new Float64Array(junctionCount);
+  const moved = Float64Array.from(x);
+  for (let j = 0; j < junctionCount; j++) {
+    const old = system.pressureReference[j] as number;
+    const reference = highest[root(j)] as number;
+    if (!(reference > 0) || !Number.isFinite(reference)) {
+      pressureReference[j] = old;
+      continue;
+    }
+    pressureReference[j] = reference;
+    moved[2 * j] = (old - reference + old * (x[2 * j] as number)) / reference;
+  }
+  return { system: { ...system, pressureReference }, x: moved };
 }
 
 /** Node pressure [Pa] from the scaled unknowns (reservoirs: fixed). */
 export function nodePressure(system: NetworkSystem, x: Float64Array, node: number): number {
   const unknown = system.model.unknownIndex[node] as number;
-  return unknown < 0
-    ? (system.fixedPressure[node] as number)
-    : system.pressureScale + (x[2 * unknown] as number) * system.pressureScale;
+  if (unknown < 0) return system.fixedPressure[node] as number;
+  const reference = system.pressureReference[unknown] as number;
+  return reference + (x[2 * unknown] as number) * reference;
 }
 
-/** A node's pressure offset (its scaled unknown, or a reservoir's fixed offset). */
-function pressureOffset(system: NetworkSystem, x: Float64Array, node: number): number {
+/** A node's reference pressure [Pa] (a reservoir's is its fixed pressure). */
+function referenceOf(system: NetworkSystem, node: number): number {
   const unknown = system.model.unknownIndex[node] as number;
-  return unknown < 0 ? (system.fixedPressureOffset[node] as number) : (x[2 * unknown] as number);
+  return unknown < 0
+    ? (system.fixedPressure[node] as number)
+    : (system.pressureReference[unknown] as number);
+}
+
+/** A node's pressure less its reference [Pa] (0 for a reservoir). */
+function pressureAboveReference(system: NetworkSystem, x: Float64Array, node: number): number {
+  const unknown = system.model.unknownIndex[node] as number;
+  return unknown < 0
+    ? 0
+    : (x[2 * unknown] as number) * (system.pressureReference[unknown] as number);
 }
 
 /**
- * p(a) - p(b) [Pa] from the offsets, more exact than the difference of the two rounded
- * pressures when they are close.
+ * p(a) - p(b) [Pa] from the references and the offsets, (p_ref,a - p_ref,b) + (p_ref,a x_a -
+ * p_ref,b x_b), more exact than the difference of the two rounded pressures when they are close:
+ * two close references subtract exactly (Sterbenz), and the offsets' parts carry a round-off of
+ * only 1e-16 of each pressure's distance from its reference. With one reference for both ends
+ * it is p_ref (x_a - x_b).
  */
 export function nodePressureDifference(
   system: NetworkSystem,
@@ -245,7 +330,18 @@ export function nodePressureDifference(
   a: number,
   b: number,
 ): number {
-  return (pressureOffset(system, x, a) - pressureOffset(system, x, b)) * system.pressureScale;
+  const ua = system.model.unknownIndex[a] as number;
+  const ub = system.model.unknownIndex[b] as number;
+  const referenceA = referenceOf(system, a);
+  const referenceB = referenceOf(system, b);
+  if (ua >= 0 && ub >= 0 && referenceA === referenceB) {
+    return ((x[2 * ua] as number) - (x[2 * ub] as number)) * referenceA;
+  }
+  return (
+    referenceA -
+    referenceB +
+    (pressureAboveReference(system, x, a) - pressureAboveReference(system, x, b))
+  );
 }
 
 /**
@@ -259,7 +355,7 @@ function pressureResolution(
   pressure: number,
   exactDrop: boolean,
 ): number {
-  const offset = Math.abs(pressureOffset(system, x, node)) * system.pressureScale;
+  const offset = Math.abs(pressureAboveReference(system, x, node));
   return exactDrop ? offset : offset + pressure;
 }
 
@@ -399,7 +495,6 @@ export function evaluateSystem(
   let jacobian: Float64Array | undefined;
   if (withJacobian) {
     jacobian = new Float64Array(4 * system.structure.blockCount);
-    const pS = system.pressureScale;
     const tS = temperatureScale;
     // Regularisation of the energy rows.
     for (let j = 0; j < junctionCount; j++) {
@@ -414,6 +509,9 @@ export function evaluateSystem(
       const from = model.edgeFrom[e] as number;
       const to = model.edgeTo[e] as number;
       const flow = massFlow[e] as number;
+      // Column scales of the two ends' pressure unknowns: their reference pressures.
+      const referenceFrom = referenceOf(system, from);
+      const referenceTo = referenceOf(system, to);
       // Mass rows: node `to` gains +flow, node `from` loses it.
       for (let row = 0; row < 2; row++) {
         const rowNode = row === 0 ? from : to;
@@ -426,7 +524,10 @@ export function evaluateSystem(
           const b = 4 * block;
           jacobian[b] =
             (jacobian[b] as number) +
-            (sign * (flowSlopes[4 * e + 2 * column] as number) * pS) / scale;
+            (sign *
+              (flowSlopes[4 * e + 2 * column] as number) *
+              (column === 0 ? referenceFrom : referenceTo)) /
+              scale;
           jacobian[b + 1] =
             (jacobian[b + 1] as number) +
             (sign * (flowSlopes[4 * e + 2 * column + 1] as number) * tS) / scale;
@@ -470,7 +571,8 @@ export function evaluateSystem(
         dP -= scaledResidual * temperatureScale * dInflowP;
         dT -= scaledResidual * temperatureScale * dInflowT;
         const rowScale = energyScale[rowUnknown] as number;
-        jacobian[b + 2] = (jacobian[b + 2] as number) + (dP * pS) / rowScale;
+        const columnReference = column === 0 ? referenceFrom : referenceTo;
+        jacobian[b + 2] = (jacobian[b + 2] as number) + (dP * columnReference) / rowScale;
         jacobian[b + 3] = (jacobian[b + 3] as number) + (dT * tS) / rowScale;
       }
     }

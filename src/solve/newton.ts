@@ -243,7 +243,7 @@ export function newtonSolve(
     // without that holding back the rest of the network.
     let limit = 1;
     for (let j = 0; j < system.junctionCount; j++) {
-      const p = 1 + (x[2 * j] as number); // p / pressureScale
+      const p = 1 + (x[2 * j] as number); // p / p_ref,j
       const dp = step[2 * j] as number;
       if (Math.abs(dp) > MAX_PRESSURE_CHANGE * p) {
         limit = Math.min(limit, (MAX_PRESSURE_CHANGE * p) / Math.abs(dp));

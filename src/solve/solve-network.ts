@@ -19,6 +19,7 @@ import {
   nodePressureDifference,
   nodeTemperature,
   pressureUnknown,
+  withPressureReferences,
 } from "./network-system.js";
 import { type NewtonOutcome, newtonSolve, ROUND_OFF_CEILING } from "./newton.js";
 
@@ -119,11 +120,16 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
     ...(limitMs !== undefined && now !== undefined ? { deadline: now() + limitMs, now } : {}),
   };
   const model = modelOf(checked);
-  const system = createNetworkSystem(model);
-
-  const start = options.initialResult
-    ? (stateFromResult(system, options.initialResult) ?? initialGuess(system))
-    : initialGuess(system);
+  const built = createNetworkSystem(model);
+  const guess = options.initialResult
+    ? (stateFromResult(built, options.initialResult) ?? initialGuess(built))
+    : initialGuess(built);
+  // Each junction's pressure unknown is then its offset from the highest first-guess pressure of
+  // its group of close junctions (defect B3), fixed for this Newton run (a continuation takes
+  // its own, and the result is built in the system whose state it is).
+  const referenced = withPressureReferences(built, guess);
+  let system = referenced.system;
+  const start = referenced.x;
   let outcome = newtonSolve(system, start, newtonOptions);
   let iterations = outcome.iterations;
   const warnings: SolverWarning[] = checked.notes.map((note) => ({
@@ -135,10 +141,11 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
   let stopReason = outcome.stopReason;
 
   if (!outcome.converged && outcome.stopReason !== "time") {
-    const rescue = continuation(system, newtonOptions);
+    const rescue = continuation(built, newtonOptions);
     iterations += rescue.iterations;
     if (rescue.outcome?.converged && rescue.scale === 1) {
       outcome = rescue.outcome;
+      system = rescue.system;
       status = "converged";
       warnings.push({
         code: "continuation",
@@ -151,7 +158,7 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
     } else if (rescue.scale > 0 && rescue.scale < 1 && hasDemands(system)) {
       // Evidence of infeasibility: part of the demand solves, more does not, and edges are at
       // their capacity there. Without that evidence the result stays "not converged".
-      const found = diagnose(system, outcome, rescue);
+      const found = diagnose(rescue.system, outcome, rescue);
       if (found.limitingEdges.length > 0) {
         status = "no-solution";
         diagnosis = found;
@@ -229,7 +236,7 @@ function stateFromResult(
     const node = nodes[system.model.junctionNodes[j] as number];
     const old = node ? byId.get(node.id) : undefined;
     if (!old || !(old.pressure > 0) || !(old.temperature > 0)) return undefined;
-    x[2 * j] = pressureUnknown(system, old.pressure);
+    x[2 * j] = pressureUnknown(system, j, old.pressure);
     x[2 * j + 1] = old.temperature / system.temperatureScale;
   }
   return x;
@@ -238,6 +245,11 @@ function stateFromResult(
 interface ContinuationOutcome {
   /** Largest demand scale solved (0 if even that failed). */
   scale: number;
+  /**
+   * The system at the stated demands with the continuation's own pressure references (from the
+   * first guess of the network at rest), in which `outcome.x` is expressed.
+   */
+  system: NetworkSystem;
   outcome: NewtonOutcome | undefined;
   iterations: number;
   steps: number;
@@ -255,17 +267,23 @@ function withDemandScale(system: NetworkSystem, scale: number): NetworkSystem {
  * one, halving the step on failure. Returns the largest scale reached.
  */
 function continuation(
-  system: NetworkSystem,
+  built: NetworkSystem,
   options: Parameters<typeof newtonSolve>[2],
 ): ContinuationOutcome {
   let iterations = 0;
   let steps = 0;
-  const zero = withDemandScale(system, 0);
-  let solved = newtonSolve(zero, initialGuess(zero), options);
+  // References from the first guess of the network at rest, not from a warm start that may be
+  // far off nor from the stated demands: junctions at rest at one pressure must share one
+  // reference, or the zero-demand start sees round-off flows between them.
+  const atRest = withDemandScale(built, 0);
+  const start = withPressureReferences(atRest, initialGuess(atRest));
+  const zero = start.system;
+  const system: NetworkSystem = { ...built, pressureReference: zero.pressureReference };
+  let solved = newtonSolve(zero, start.x, options);
   iterations += solved.iterations;
   if (!solved.converged) {
     const timedOut = solved.stopReason === "time";
-    return { scale: 0, outcome: undefined, iterations, steps, timedOut };
+    return { scale: 0, system, outcome: undefined, iterations, steps, timedOut };
   }
   let scale = 0;
   let step = 0.25;
@@ -296,7 +314,7 @@ function continuation(
     }
   }
   // Evaluate the original system at the last solved state so flows and chokes are at hand.
-  return { scale, outcome: solved, iterations, steps, timedOut };
+  return { scale, system, outcome: solved, iterations, steps, timedOut };
 }
 
 /** Why a network with fixed demands has no solution: how far it gets, and which edges choke. */

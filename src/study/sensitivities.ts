@@ -84,17 +84,27 @@ export function sensitivities(network: unknown, options: SensitivityOptions): Se
   return answerSensitivities(prepareQuestion(network, "sensitivities", options));
 }
 
-/** The scaled state of one system moved to another's scales (same junctions, same order). */
+/**
+ * The scaled state of one system moved to another's scales (same junctions, same order, and the
+ * same junction reference pressures, see {@link changedSystem}: the pressure unknowns carry over
+ * as they are, digits and all).
+ */
 function rescaled(x: Float64Array, from: NetworkSystem, to: NetworkSystem): Float64Array {
-  const pressureRatio = from.pressureScale / to.pressureScale;
   const temperatureRatio = from.temperatureScale / to.temperatureScale;
-  const moved = new Float64Array(x.length);
+  const moved = Float64Array.from(x);
   for (let j = 0; j < from.junctionCount; j++) {
-    // Pressure unknowns are offsets p / pressureScale - 1.
-    moved[2 * j] = (1 + (x[2 * j] as number)) * pressureRatio - 1;
     moved[2 * j + 1] = (x[2 * j + 1] as number) * temperatureRatio;
   }
   return moved;
+}
+
+/**
+ * The system of a changed network with the base system's junction reference pressures, so that
+ * the base state means the same pressures in both (the pressure unknowns are offsets p / p_ref,j
+ * - 1).
+ */
+function changedSystem(base: NetworkSystem, network: CheckedDocument): NetworkSystem {
+  return { ...createNetworkSystem(modelOf(network)), pressureReference: base.pressureReference };
 }
 
 /** {@link sensitivities} on a prepared study with a `sensitivities` block. */
@@ -189,7 +199,7 @@ function inputDerivatives(
   const systems = offsets.map((offset) =>
     offset === 0
       ? system
-      : createNetworkSystem(modelOf(applyParameters(network, [parameter], [theta + offset]))),
+      : changedSystem(system, applyParameters(network, [parameter], [theta + offset])),
   );
 
   // dR/dtheta at the fixed state, with the mass scale of the base state held.

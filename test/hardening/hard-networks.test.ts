@@ -76,16 +76,16 @@ const DEFECTS: {
   {
     file: "offsets-far-below-supply-736.json",
     expected: "converged",
-    open: true,
+    open: false,
     defect:
-      "B3: flows on drops of 1e-12 of the pressure at junctions far below the highest reservoir pressure (offsets of -0.6) still stall",
+      "B3 (fixed: a reference pressure per group of close junctions): flows on drops of 1e-12 of the pressure at junctions far below the highest reservoir pressure (offsets of -0.6) stalled",
   },
   {
     file: "offsets-far-below-supply-871.json",
     expected: "converged",
-    open: true,
+    open: false,
     defect:
-      "B3: flows on drops of 1e-12 of the pressure beside a second reservoir at 0.6 of the highest still stall",
+      "B3 (fixed: a reference pressure per group of close junctions): flows on drops of 1e-12 of the pressure beside a second reservoir at 0.6 of the highest stalled",
   },
   {
     file: "tiny-flow-large-bore.json",

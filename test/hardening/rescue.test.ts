@@ -37,7 +37,7 @@ function plainNewton(document: unknown, maxIterations = 100, tolerance = 1e-9) {
     );
     const next = x.map((value, i) => value + (step[i] as number));
     // A full step to a non-positive pressure or temperature ends plain Newton (the pressure
-    // unknowns are offsets p / pressureScale - 1).
+    // unknowns are offsets p / p_ref,j - 1).
     if (
       !next.every((value, i) => (i % 2 === 0 ? 1 + value : value) > 0 && Number.isFinite(value))
     ) {

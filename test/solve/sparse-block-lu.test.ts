@@ -276,7 +276,7 @@ describe("sparse solve of network Jacobians against a dense solve", () => {
     "overload-diagnosed.json",
     "overloaded-tee-near-capacity.json",
     "tiny-huge-33-iterations.json",
-    // Open defect B3: junctions behind a DN 6 restriction at 0.37 of the supply pressure.
+    // Defect B3's fixture: junctions behind a DN 6 restriction at 0.37 of the supply pressure.
     "offsets-far-below-supply-736.json",
   ]);
   for (const [name, document] of networks) {
