@@ -14,6 +14,7 @@ import {
 import { STANDARD_GRAVITY } from "../physics/heat-transfer-pipe.js";
 import { PipeFlowEvaluation } from "../physics/pipe-flow.js";
 import {
+  enthalpyTemperature,
   type NetworkSystem,
   NO_FLOW_WEIGHT,
   networkThroughput,
@@ -49,6 +50,11 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
   const doc = model.document;
   const gas = doc.gas;
   const cp = gas.specificHeatCp;
+  // Enthalpy per kilogram is cp H(T, p), on a scale with zero at 0 K for the perfect gas: cp T
+  // for a calorically perfect ideal gas, h(T, p) + cp 298.15 K with cp(T) or a real gas.
+  const slopes = new Float64Array(2);
+  const enthalpyTemperatureAt = (pressure: number, temperature: number): number =>
+    enthalpyTemperature(system, pressure, temperature, slopes);
   const nodeCount = doc.nodes.length;
   const netOutflow = new Float64Array(nodeCount);
   const inflowMagnitude = new Float64Array(nodeCount);
@@ -102,7 +108,8 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     netOutflow[to] = (netOutflow[to] as number) - signed;
     inflowMagnitude[downstream] = (inflowMagnitude[downstream] as number) + flow;
     enthalpyArriving[downstream] =
-      (enthalpyArriving[downstream] as number) + flow * cp * evaluation.arrivalTemperature;
+      (enthalpyArriving[downstream] as number) +
+      flow * cp * enthalpyTemperatureAt(pDown, evaluation.arrivalTemperature);
     // Heat into the gas: the heat-transfer model's own integral; otherwise what the arrival
     // temperature implies (isothermal pipes; 0 for adiabatic pipes and components). Lift: m g dz.
     const rise = element.kind === "pipe" ? (element.rise ?? 0) * (forward ? 1 : -1) : 0;
@@ -170,7 +177,7 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
       const supplied = netOutflow[index] as number; // into the edges
       if (supplied > 0) {
         massIn += supplied;
-        enthalpyIn += supplied * cp * temperature;
+        enthalpyIn += supplied * cp * enthalpyTemperatureAt(pressure, temperature);
       } else {
         massOut += -supplied;
         enthalpyOut += enthalpyArriving[index] as number;
@@ -191,15 +198,20 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     massIn += injection;
     massOut += delivered;
     const injectedEnthalpy =
-      injection > 0 ? injection * cp * (system.injectionTemperature[index] as number) : 0;
+      injection > 0
+        ? injection *
+          cp *
+          enthalpyTemperatureAt(pressure, system.injectionTemperature[index] as number)
+        : 0;
+    const own = enthalpyTemperatureAt(pressure, temperature);
     enthalpyIn += injectedEnthalpy;
-    enthalpyOut += delivered * cp * temperature;
+    enthalpyOut += delivered * cp * own;
     const massImbalance = -(netOutflow[index] as number) - demand;
     largestMassImbalance = Math.max(largestMassImbalance, Math.abs(massImbalance) / throughput);
     // Enthalpy balance at the junction: arriving + injected = leaving through edges + delivered.
     const leaving = (netOutflow[index] as number) + (inflowMagnitude[index] as number) + delivered;
     const energyImbalance =
-      (enthalpyArriving[index] as number) + injectedEnthalpy - leaving * cp * temperature;
+      (enthalpyArriving[index] as number) + injectedEnthalpy - leaving * cp * own;
     largestEnergyImbalance = Math.max(
       largestEnergyImbalance,
       Math.abs(energyImbalance) / (throughput * cp * temperatureReference),
