@@ -2,6 +2,8 @@
  * Solver state -> per-node and per-edge results, the network balance recomputed independently
  * of the solver, and the design-limit warnings.
  */
+
+import { emptyThermoState, gasState } from "../gas/thermo.js";
 import type { DesignLimits } from "../input/document-types.js";
 import { componentDetails } from "../physics/components/component-flow.js";
 import {
@@ -327,6 +329,7 @@ export function designWarnings(
       });
     }
   }
+  if (system.gas.gas.equationOfState !== undefined) condensingWarnings(results, system, warnings);
   for (const index of results.noFlowJunctions) {
     const node = results.nodes[index] as NodeResult;
     warnings.push({
@@ -336,6 +339,42 @@ export function designWarnings(
     });
   }
   return warnings;
+}
+
+/**
+ * A `condensing` warning for each node, and each pipe end, whose state the Peng-Robinson
+ * equation of state finds inside the gas's two-phase region (`ThermoState.condensing`): the
+ * solver treats the gas as a single vapour-like phase, which does not hold there.
+ */
+function condensingWarnings(
+  results: StateResults,
+  system: NetworkSystem,
+  warnings: SolverWarning[],
+): void {
+  const gas = system.gas.gas;
+  const state = emptyThermoState();
+  const condenses = (pressure: number, temperature: number): boolean =>
+    gasState(gas, pressure, temperature, state).condensing;
+  for (const node of results.nodes) {
+    if (condenses(node.pressure, node.temperature)) {
+      warnings.push({
+        code: "condensing",
+        node: node.id,
+        message: `node ${node.id}: the gas would condense at ${node.pressure.toPrecision(6)} Pa and ${node.temperature.toFixed(2)} K (Peng-Robinson); the single-phase results do not hold there`,
+      });
+    }
+  }
+  for (const edge of results.edges) {
+    if (edge.kind !== "pipe") continue;
+    const end = [edge.inlet, edge.outlet].find((s) => condenses(s.pressure, s.temperature));
+    if (end !== undefined) {
+      warnings.push({
+        code: "condensing",
+        edge: edge.id,
+        message: `edge ${edge.id}: the gas would condense at ${end.pressure.toPrecision(6)} Pa and ${end.temperature.toFixed(2)} K (Peng-Robinson); the single-phase results do not hold there`,
+      });
+    }
+  }
 }
 
 /** The warning text of a closed check valve or regulator, or undefined. */

@@ -288,3 +288,43 @@ describe("refusals with cp(T) or Peng-Robinson", () => {
     ]);
   });
 });
+
+describe("a Peng-Robinson state inside the two-phase region", () => {
+  // Invented data: carbon dioxide at 45 bar and 330 K cooled along 2 km of 50 mm line to 40 bar.
+  const line = (surroundings: string): NetworkDocument =>
+    ({
+      settings: { pipeModel: "heat-transfer" },
+      ambient: { temperature: surroundings },
+      gas: { preset: "carbon-dioxide", heatCapacity: "nasa7", equationOfState: "peng-robinson" },
+      nodes: [
+        { id: "A", kind: "reservoir", pressure: "45 bar(a)", temperature: "330 K" },
+        { id: "B", kind: "reservoir", pressure: "40 bar(a)", temperature: "330 K" },
+      ],
+      edges: [
+        {
+          id: "P",
+          kind: "pipe",
+          from: "A",
+          to: "B",
+          length: "2 km",
+          diameter: "50 mm",
+          heatTransferCoefficient: "50 W/(m2 K)",
+        },
+      ],
+    }) as NetworkDocument;
+
+  it("is reported with a condensing warning naming the pipe", () => {
+    // Cooled towards -10 degC: CO2 saturates at 40 bar near 278 K (its vapour pressure is
+    // 34.85 bar at 0 degC, NIST Chemistry WebBook, from memory), so the outlet is liquid-like.
+    const result = solved(line("-10 degC"));
+    expect(edgeOf(result, "P").outlet.temperature).toBeLessThan(270);
+    expect(result.warnings).toContainEqual(
+      expect.objectContaining({ code: "condensing", edge: "P" }),
+    );
+  });
+
+  it("is not reported when the gas stays well above saturation", () => {
+    const result = solved(line("60 degC"));
+    expect(result.warnings.filter((warning) => warning.code === "condensing")).toEqual([]);
+  });
+});
