@@ -175,11 +175,13 @@ export function readGas(input: GasInput | undefined, reader: ValueReader): Gas |
 
 /**
  * Pipe models that use the gas's temperature-dependent cp and equation of state through
- * src/gas/thermo.ts. None yet: the adiabatic (Fanno) and isothermal pipe models, junction
- * mixing and every component assume a calorically perfect ideal gas. The heat-transfer pipe
- * model, in progress, is to be the first; junction enthalpy mixing has to come with it.
+ * src/gas/thermo.ts: the heat-transfer model, which integrates along the pipe with every
+ * property from there. Junction mixing, reservoir supply, injections and the results' balances
+ * take enthalpy from there too (src/solve/network-system.ts, src/results/build-results.ts). The
+ * adiabatic (Fanno) and isothermal pipe models and every component are closed forms for a
+ * calorically perfect ideal gas.
  */
-const PROPERTY_MODEL_PIPE_MODELS: readonly PipeModelName[] = [];
+const PROPERTY_MODEL_PIPE_MODELS: readonly PipeModelName[] = ["heat-transfer"];
 
 /**
  * Refuse a gas whose heat-capacity or equation-of-state model the edges cannot use, rather
@@ -199,10 +201,7 @@ export function gasModelSupportIssues(
     unsupported.length > shown.length
       ? `${shown.join(", ")} and ${unsupported.length - shown.length} more`
       : shown.join(", ");
-  const supported =
-    PROPERTY_MODEL_PIPE_MODELS.length === 0
-      ? "no edge model supports it yet (the adiabatic and isothermal pipe models, junction mixing and the components assume a constant cp and an ideal gas)"
-      : `it is supported with the ${PROPERTY_MODEL_PIPE_MODELS.join(", ")} pipe model only`;
+  const supported = `it is supported by pipes with the ${PROPERTY_MODEL_PIPE_MODELS.map((name) => `"${name}"`).join(", ")} model only (the adiabatic and isothermal pipe models and the components are closed forms for a constant cp and an ideal gas)`;
   if (gas.heatCapacity !== undefined) {
     reader.fail({
       code: "unsupported",

@@ -670,7 +670,7 @@ export function evaluateHeatTransferPipe(
 
   // (A last run that is sonic cannot remain: the bracket then shrank onto the capacity.)
   if (choked || run === undefined || run.sonic) {
-    setChoked(pipe, p0, t0, area, h0, runAt, out, scratch, largestFlux);
+    setChoked(pipe, p0, t0, pd, area, h0, runAt, out, scratch, largestFlux);
     return;
   }
 
@@ -888,11 +888,17 @@ function capacityFlux(
   return flux;
 }
 
-/** Choked: the capacity flows; derivatives by one-sided differences of capacity solves. */
+/**
+ * Choked: the capacity flows; derivatives by one-sided differences of capacity solves. The
+ * arrival stagnation temperature is taken at the downstream plenum pressure pd, as for a
+ * subsonic pipe, so that the junction turns it back into the same enthalpy (with a real gas
+ * h depends on p: dT_arrive/dpd = -(dh/dp)_T / cp at fixed h0).
+ */
 function setChoked(
   pipe: PipeGeometry,
   p0: number,
   t0: number,
+  pd: number,
   area: number,
   h0: number,
   runAt: (flux: number, withSensitivities: boolean) => PipeRun | undefined,
@@ -925,31 +931,36 @@ function setChoked(
   const arrival = temperatureFromEnthalpy(
     gas,
     h0 + run.heat / out.massFlow - STANDARD_GRAVITY * rise,
-    run.pressure,
+    pd,
   );
   out.arrivalTemperature = arrival;
   // One-sided differences in p0 and T0 of converged capacity solves, warm-started at this one.
   const dp = CAPACITY_STEP * p0;
   const dt = CAPACITY_STEP * t0;
   const probe = scratch.probe;
-  capacityAt(pipe, p0 + dp, t0, scratch, area, flux, probe);
+  capacityAt(pipe, p0 + dp, t0, pd, scratch, area, flux, probe);
   out.dMassFlowdUpstreamPressure = ((probe[0] as number) - out.massFlow) / dp;
   out.dArrivalTemperaturedUpstreamPressure = ((probe[1] as number) - arrival) / dp;
-  capacityAt(pipe, p0, t0 + dt, scratch, area, flux, probe);
+  capacityAt(pipe, p0, t0 + dt, pd, scratch, area, flux, probe);
   out.dMassFlowdUpstreamTemperature = ((probe[0] as number) - out.massFlow) / dt;
   out.dArrivalTemperaturedUpstreamTemperature = ((probe[1] as number) - arrival) / dt;
   out.dMassFlowdDownstreamPressure = 0;
   out.dArrivalTemperaturedDownstreamPressure = 0;
+  if (gas.equationOfState !== undefined) {
+    const s = gasState(gas, pd, arrival, scratch.state);
+    out.dArrivalTemperaturedDownstreamPressure = -s.enthalpyPressureSlope / s.specificHeatCp;
+  }
 }
 
 /**
- * Capacity [kg/s] and the arrival temperature at capacity for a plenum state (p0, T0), into
- * `result` [capacity, arrival temperature].
+ * Capacity [kg/s] and the arrival stagnation temperature at capacity (at the downstream plenum
+ * pressure pd) for a plenum state (p0, T0), into `result` [capacity, arrival temperature].
  */
 function capacityAt(
   pipe: PipeGeometry,
   p0: number,
   t0: number,
+  pd: number,
   scratch: HeatTransferScratch,
   area: number,
   guess: number,
@@ -981,7 +992,7 @@ function capacityAt(
   result[1] = temperatureFromEnthalpy(
     gas,
     h0 + run.heat / massFlow - STANDARD_GRAVITY * scratch.slope * length,
-    run.pressure,
+    pd,
   );
 }
 

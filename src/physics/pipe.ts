@@ -10,6 +10,7 @@
  */
 import { gasViscosity } from "../gas/gas.js";
 import type { Gas } from "../gas/gas-types.js";
+import { gasState, temperatureFromEnthalpy } from "../gas/thermo.js";
 import { fannoParameter, fannoPressureRatio, machFromFannoParameter } from "./fanno.js";
 import { darcyFrictionFactor } from "./friction.js";
 import { heatTransferOutlet } from "./heat-transfer-pipe.js";
@@ -173,6 +174,11 @@ function checkPipe(pipe: Pipe, upstream: PlenumState): void {
  * Adiabatic: T0 constant; T = T0 / (1 + (gamma-1)/2 M^2); p0 = p (T0/T)^(gamma/(gamma-1)).
  * Isothermal: static T constant at the upstream plenum temperature.
  * Heat-transfer: static T from the integration (inlet and outlet), T0 = T (1 + (gamma-1)/2 M^2).
+ * Heat-transfer with cp(T) or a real gas (the gas carries `heatCapacity` or `equationOfState`):
+ * rho and the speed of sound a from src/gas/thermo.ts at (p, T), v = M a, the stagnation
+ * pressure p0 = p (1 + (kappa-1)/2 M^2)^(kappa/(kappa-1)) with the local isentropic exponent
+ * kappa = rho a^2 / p (exact for a perfect gas, within O(M^4) otherwise; p + rho v^2/2 if
+ * kappa <= 1), and T0 from h(T0, p0) = h(T, p) + v^2/2.
  */
 export function endStatesOf(
   gas: PipeGas,
@@ -196,6 +202,33 @@ export function endStatesOf(
       };
     }
     const temperature = model === "heat-transfer" ? integrated : upstreamTemperature;
+    const thermoGas = gas.gas;
+    if (
+      model === "heat-transfer" &&
+      (thermoGas.heatCapacity !== undefined || thermoGas.equationOfState !== undefined)
+    ) {
+      const local = gasState(thermoGas, pressure, temperature);
+      const velocity = mach * local.soundSpeed;
+      const kinetic = 0.5 * velocity * velocity;
+      const kappa = (local.density * local.soundSpeed * local.soundSpeed) / pressure;
+      const stagnationPressure =
+        kappa > 1
+          ? pressure * (1 + 0.5 * (kappa - 1) * mach * mach) ** (kappa / (kappa - 1))
+          : pressure + local.density * kinetic;
+      return {
+        pressure,
+        stagnationPressure,
+        temperature,
+        stagnationTemperature: temperatureFromEnthalpy(
+          thermoGas,
+          local.enthalpy + kinetic,
+          stagnationPressure,
+        ),
+        density: local.density,
+        velocity,
+        mach,
+      };
+    }
     return {
       pressure,
       stagnationPressure: pressure / isentropicPressureRatio(mach, gamma),

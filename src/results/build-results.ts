@@ -2,6 +2,8 @@
  * Solver state -> per-node and per-edge results, the network balance recomputed independently
  * of the solver, and the design-limit warnings.
  */
+
+import { emptyThermoState, gasState } from "../gas/thermo.js";
 import type { DesignLimits } from "../input/document-types.js";
 import { componentDetails } from "../physics/components/component-flow.js";
 import {
@@ -14,6 +16,7 @@ import {
 import { STANDARD_GRAVITY } from "../physics/heat-transfer-pipe.js";
 import { PipeFlowEvaluation } from "../physics/pipe-flow.js";
 import {
+  enthalpyTemperature,
   type NetworkSystem,
   NO_FLOW_WEIGHT,
   networkThroughput,
@@ -51,6 +54,11 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
   const doc = model.document;
   const gas = doc.gas;
   const cp = gas.specificHeatCp;
+  // Enthalpy per kilogram is cp H(T, p), on a scale with zero at 0 K for the perfect gas: cp T
+  // for a calorically perfect ideal gas, h(T, p) + cp 298.15 K with cp(T) or a real gas.
+  const slopes = new Float64Array(2);
+  const enthalpyTemperatureAt = (pressure: number, temperature: number): number =>
+    enthalpyTemperature(system, pressure, temperature, slopes);
   const nodeCount = doc.nodes.length;
   const netOutflow = new Float64Array(nodeCount);
   const inflowMagnitude = new Float64Array(nodeCount);
@@ -104,7 +112,8 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     netOutflow[to] = (netOutflow[to] as number) - signed;
     inflowMagnitude[downstream] = (inflowMagnitude[downstream] as number) + flow;
     enthalpyArriving[downstream] =
-      (enthalpyArriving[downstream] as number) + flow * cp * evaluation.arrivalTemperature;
+      (enthalpyArriving[downstream] as number) +
+      flow * cp * enthalpyTemperatureAt(pDown, evaluation.arrivalTemperature);
     // Heat into the gas: the heat-transfer model's own integral; otherwise what the arrival
     // temperature implies (isothermal pipes; 0 for adiabatic pipes and components). Lift: m g dz.
     const rise = element.kind === "pipe" ? (element.rise ?? 0) * (forward ? 1 : -1) : 0;
@@ -175,7 +184,7 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
       const supplied = netOutflow[index] as number; // into the edges
       if (supplied > 0) {
         massIn += supplied;
-        enthalpyIn += supplied * cp * temperature;
+        enthalpyIn += supplied * cp * enthalpyTemperatureAt(pressure, temperature);
       } else {
         massOut += -supplied;
         enthalpyOut += enthalpyArriving[index] as number;
@@ -196,15 +205,20 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     massIn += injection;
     massOut += delivered;
     const injectedEnthalpy =
-      injection > 0 ? injection * cp * (system.injectionTemperature[index] as number) : 0;
+      injection > 0
+        ? injection *
+          cp *
+          enthalpyTemperatureAt(pressure, system.injectionTemperature[index] as number)
+        : 0;
+    const own = enthalpyTemperatureAt(pressure, temperature);
     enthalpyIn += injectedEnthalpy;
-    enthalpyOut += delivered * cp * temperature;
+    enthalpyOut += delivered * cp * own;
     const massImbalance = -(netOutflow[index] as number) - demand;
     largestMassImbalance = Math.max(largestMassImbalance, Math.abs(massImbalance) / throughput);
     // Enthalpy balance at the junction: arriving + injected = leaving through edges + delivered.
     const leaving = (netOutflow[index] as number) + (inflowMagnitude[index] as number) + delivered;
     const energyImbalance =
-      (enthalpyArriving[index] as number) + injectedEnthalpy - leaving * cp * temperature;
+      (enthalpyArriving[index] as number) + injectedEnthalpy - leaving * cp * own;
     largestEnergyImbalance = Math.max(
       largestEnergyImbalance,
       Math.abs(energyImbalance) / (throughput * cp * temperatureReference),
@@ -320,6 +334,7 @@ export function designWarnings(
       });
     }
   }
+  if (system.gas.gas.equationOfState !== undefined) condensingWarnings(results, system, warnings);
   for (const index of results.noFlowJunctions) {
     const node = results.nodes[index] as NodeResult;
     warnings.push({
@@ -329,6 +344,42 @@ export function designWarnings(
     });
   }
   return warnings;
+}
+
+/**
+ * A `condensing` warning for each node, and each pipe end, whose state the Peng-Robinson
+ * equation of state finds inside the gas's two-phase region (`ThermoState.condensing`): the
+ * solver treats the gas as a single vapour-like phase, which does not hold there.
+ */
+function condensingWarnings(
+  results: StateResults,
+  system: NetworkSystem,
+  warnings: SolverWarning[],
+): void {
+  const gas = system.gas.gas;
+  const state = emptyThermoState();
+  const condenses = (pressure: number, temperature: number): boolean =>
+    gasState(gas, pressure, temperature, state).condensing;
+  for (const node of results.nodes) {
+    if (condenses(node.pressure, node.temperature)) {
+      warnings.push({
+        code: "condensing",
+        node: node.id,
+        message: `node ${node.id}: the gas would condense at ${node.pressure.toPrecision(6)} Pa and ${node.temperature.toFixed(2)} K (Peng-Robinson); the single-phase results do not hold there`,
+      });
+    }
+  }
+  for (const edge of results.edges) {
+    if (edge.kind !== "pipe") continue;
+    const end = [edge.inlet, edge.outlet].find((s) => condenses(s.pressure, s.temperature));
+    if (end !== undefined) {
+      warnings.push({
+        code: "condensing",
+        edge: edge.id,
+        message: `edge ${edge.id}: the gas would condense at ${end.pressure.toPrecision(6)} Pa and ${end.temperature.toFixed(2)} K (Peng-Robinson); the single-phase results do not hold there`,
+      });
+    }
+  }
 }
 
 /** The warning text of a closed check valve or regulator, or undefined. */

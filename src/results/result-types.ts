@@ -39,7 +39,12 @@ export type WarningCode =
   /** A solution reached by ramping the demands up from a smaller case. */
   | "continuation"
   /** A check valve or regulator is closed: only its leakage passes. */
-  | "closed";
+  | "closed"
+  /**
+   * With Peng-Robinson, a node's state or a pipe's inlet or outlet state is one where the gas
+   * would condense: the single-phase gas results there do not hold.
+   */
+  | "condensing";
 
 /** A warning attached to a result, naming the node or edge it is about. */
 export interface SolverWarning {

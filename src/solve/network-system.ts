@@ -7,13 +7,20 @@
  *
  * Residuals per junction j (docs/model.md, "Network equations"):
  *   mass:   sum of edge flows into j - demand_j = 0,                     scaled by throughput W
- *   energy: sum over inflowing edges of m_e (T_arrive,e - T_j)
- *           + injection_j (T_injected - T_j) + w_j (T_ambient - T_j) = 0,
+ *   energy: sum over inflowing edges of m_e (H(T_arrive,e, p_j) - H(T_j, p_j))
+ *           + injection_j (H(T_injected, p_j) - H(T_j, p_j)) + w_j (H(T_ambient, p_j) - H(T_j, p_j))
+ *           = 0, H(T, p) = h(T, p) / cp_ref + 298.15 K the enthalpy expressed as a temperature
+ *           (cp_ref the gas's constant cp; for a calorically perfect ideal gas H = T exactly, and
+ *           the code takes T itself then, so these rows are the temperature mixing rows),
  *           scaled by (inflow_j + injection_j + w_j) T_ref, so it reads as a temperature error over
  *           T_ref; convergence also asks the enthalpy imbalance over W T_ref to meet the
  *           tolerance (src/solve/newton.ts)
- * The energy balance is written in this mixing form (the enthalpy balance minus cp T_j times the
- * mass balance), so a junction's temperature depends only on the gas arriving there. The weight
+ * The energy balance is written in this mixing form (the enthalpy balance minus h_j times the
+ * mass balance), so a junction's temperature depends only on the gas arriving there. With cp(T)
+ * (NASA polynomials) or a real gas (Peng-Robinson), h comes from src/gas/thermo.ts: the rows
+ * balance stagnation enthalpy, sum m_in h0_arrive + injection h_injected = (sum m_out + demand)
+ * h(T_j, p_j); an edge's arrival stagnation temperature is turned back into enthalpy at the
+ * junction's pressure, the pressure at which the edge models compute it from h0. The weight
  * w_j = (eps W)^2 / (inflow_j + injection_j + eps W), eps = 1e-9 (the default tolerance), gives a junction that no
  * gas reaches the ambient temperature instead of a singular equation, even when round-off leaves
  * a flow of order eps W through it; where gas does flow (inflow_j >> eps W) it moves the
@@ -23,6 +30,14 @@
  * one at higher pressure; a choked edge's flow does not depend on its downstream pressure.
  */
 import { gasViscosity } from "../gas/gas.js";
+import type { PengRobinsonValues } from "../gas/peng-robinson.js";
+import { emptyPengRobinsonValues } from "../gas/peng-robinson.js";
+import {
+  ENTHALPY_REFERENCE_TEMPERATURE,
+  emptyThermoState,
+  gasState,
+  type ThermoState,
+} from "../gas/thermo.js";
 import type { NetworkModel } from "../model/build-network.js";
 import { type EdgeElement, evaluateEdgeFlow, flowsForward } from "../physics/edge-flow.js";
 import { isCreepingFlow, PipeFlowEvaluation, type PipeGas } from "../physics/pipe-flow.js";
@@ -90,6 +105,11 @@ export interface NetworkSystem {
   edgeBlocks: Int32Array;
   /** One reusable evaluation per edge (warm starts live there). */
   evaluations: PipeFlowEvaluation[];
+  /**
+   * Working records for the enthalpy of a gas with cp(T) or an equation of state; undefined for
+   * a calorically perfect ideal gas, whose energy rows balance temperatures.
+   */
+  thermo: { state: ThermoState; equationOfState: PengRobinsonValues } | undefined;
 }
 
 /** Per-iteration results of an evaluation of the system. */
@@ -212,7 +232,38 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
     structure,
     edgeBlocks,
     evaluations: elements.map(() => new PipeFlowEvaluation()),
+    thermo:
+      gasData.heatCapacity === undefined && gasData.equationOfState === undefined
+        ? undefined
+        : { state: emptyThermoState(), equationOfState: emptyPengRobinsonValues() },
   };
+}
+
+/**
+ * The enthalpy of the gas at (p, T) expressed as a temperature [K]:
+ * H = h(T, p) / cp_ref + 298.15 K, cp_ref the gas's constant cp and h from src/gas/thermo.ts
+ * (zero at 298.15 K for the ideal gas), with slopes[0] = (dH/dT)_p = cp(T, p) / cp_ref [-] and
+ * slopes[1] = (dH/dp)_T = (dh/dp)_T / cp_ref [K/Pa]. A calorically perfect ideal gas has
+ * H = T exactly (slopes 1 and 0), which is returned as is.
+ */
+export function enthalpyTemperature(
+  system: NetworkSystem,
+  pressure: number,
+  temperature: number,
+  slopes: Float64Array,
+): number {
+  const thermo = system.thermo;
+  if (thermo === undefined) {
+    slopes[0] = 1;
+    slopes[1] = 0;
+    return temperature;
+  }
+  const gas = system.gas.gas;
+  const state = gasState(gas, pressure, temperature, thermo.state, thermo.equationOfState);
+  const perCp = 1 / gas.specificHeatCp;
+  slopes[0] = state.specificHeatCp * perCp;
+  slopes[1] = state.enthalpyPressureSlope * perCp;
+  return state.enthalpy * perCp + ENTHALPY_REFERENCE_TEMPERATURE;
 }
 
 /**
@@ -380,7 +431,12 @@ export function evaluateSystem(
   const { model, edgeCount, junctionCount } = system;
   const massFlow = new Float64Array(edgeCount);
   const choked = new Uint8Array(edgeCount);
-  const arrival = new Float64Array(edgeCount);
+  // Per edge: the arrival as an enthalpy temperature H at the downstream node's pressure, with
+  // its slopes dH/dT and dH/dp there (1 and 0 for a perfect gas: H is the arrival temperature).
+  const arrivalEnthalpy = new Float64Array(edgeCount);
+  const arrivalEnthalpyPerT = new Float64Array(edgeCount);
+  const arrivalEnthalpyPerP = new Float64Array(edgeCount);
+  const slopes = new Float64Array(2);
   // Per edge: derivatives of the signed flow and of the arrival temperature with respect to the
   // unscaled states (pFrom, TFrom, pTo, TTo).
   const flowSlopes = new Float64Array(4 * edgeCount);
@@ -426,7 +482,9 @@ export function evaluateSystem(
     const sign = forward ? 1 : -1;
     massFlow[e] = sign * result.massFlow;
     choked[e] = result.choked ? 1 : 0;
-    arrival[e] = result.arrivalTemperature;
+    arrivalEnthalpy[e] = enthalpyTemperature(system, pDown, result.arrivalTemperature, slopes);
+    arrivalEnthalpyPerT[e] = slopes[0] as number;
+    arrivalEnthalpyPerP[e] = slopes[1] as number;
     let dDown = result.dMassFlowdDownstreamPressure;
     if (result.choked) dDown = -CHOKED_SLOPE_FRACTION * result.dMassFlowdUpstreamPressure;
     // Slot order: 0 pFrom, 1 TFrom, 2 pTo, 3 TTo.
@@ -467,16 +525,36 @@ export function evaluateSystem(
     energyScale[j] = (supplied + noFlowWeight(scale, supplied)) * temperatureScale;
   }
   const residual = new Float64Array(2 * junctionCount);
+  // Per junction: its own enthalpy temperature H(T_j, p_j) and slopes, and d/dp_j of the ambient
+  // and injection terms' w (H_ambient - H_j) + injection (H_injected - H_j) (0 for a perfect gas).
+  const junctionEnthalpy = new Float64Array(junctionCount);
+  const junctionEnthalpyPerT = new Float64Array(junctionCount);
+  const junctionEnthalpyPerP = new Float64Array(junctionCount);
+  const supplyTermPerP = new Float64Array(junctionCount);
   for (let j = 0; j < junctionCount; j++) {
     const node = model.junctionNodes[j] as number;
     const t = (x[2 * j + 1] as number) * temperatureScale;
+    const p = nodePressure(system, x, node);
     const demand = system.demand[node] as number;
     // mass: inflow - demand = -(net outflow to edges) - demand
     residual[2 * j] = (-(nodeNetOutflow[node] as number) - demand) / scale;
     const supplied = (nodeInflow[node] as number) + (demand < 0 ? -demand : 0);
-    let energy = noFlowWeight(scale, supplied) * (system.ambientTemperature - t);
-    if (demand < 0) energy += -demand * ((system.injectionTemperature[node] as number) - t);
+    const own = enthalpyTemperature(system, p, t, slopes);
+    junctionEnthalpy[j] = own;
+    junctionEnthalpyPerT[j] = slopes[0] as number;
+    const ownPerP = slopes[1] as number;
+    junctionEnthalpyPerP[j] = ownPerP;
+    const weight = noFlowWeight(scale, supplied);
+    const ambient = enthalpyTemperature(system, p, system.ambientTemperature, slopes);
+    let energy = weight * (ambient - own);
+    let energyPerP = weight * ((slopes[1] as number) - ownPerP);
+    if (demand < 0) {
+      const injected = system.injectionTemperature[node] as number;
+      energy += -demand * (enthalpyTemperature(system, p, injected, slopes) - own);
+      energyPerP += -demand * ((slopes[1] as number) - ownPerP);
+    }
     residual[2 * j + 1] = energy;
+    supplyTermPerP[j] = energyPerP;
   }
   for (let e = 0; e < edgeCount; e++) {
     const flow = massFlow[e] as number;
@@ -484,9 +562,9 @@ export function evaluateSystem(
     const downstream = flow > 0 ? (model.edgeTo[e] as number) : (model.edgeFrom[e] as number);
     const unknown = model.unknownIndex[downstream] as number;
     if (unknown < 0) continue;
-    const t = (x[2 * unknown + 1] as number) * temperatureScale;
     residual[2 * unknown + 1] =
-      (residual[2 * unknown + 1] as number) + Math.abs(flow) * ((arrival[e] as number) - t);
+      (residual[2 * unknown + 1] as number) +
+      Math.abs(flow) * ((arrivalEnthalpy[e] as number) - (junctionEnthalpy[unknown] as number));
   }
   for (let j = 0; j < junctionCount; j++) {
     residual[2 * j + 1] = (residual[2 * j + 1] as number) / (energyScale[j] as number);
@@ -501,9 +579,14 @@ export function evaluateSystem(
       const node = model.junctionNodes[j] as number;
       const demand = system.demand[node] as number;
       const weight = noFlowWeight(scale, (nodeInflow[node] as number) + (demand < 0 ? -demand : 0));
-      const diagonal = -(weight + (demand < 0 ? -demand : 0));
+      const diagonal = -(weight + (demand < 0 ? -demand : 0)) * (junctionEnthalpyPerT[j] as number);
       const rowScale = energyScale[j] as number;
       jacobian[4 * j + 3] = (jacobian[4 * j + 3] as number) + (diagonal * tS) / rowScale;
+      if (system.thermo !== undefined) {
+        jacobian[4 * j + 2] =
+          (jacobian[4 * j + 2] as number) +
+          ((supplyTermPerP[j] as number) * (system.pressureReference[j] as number)) / rowScale;
+      }
     }
     for (let e = 0; e < edgeCount; e++) {
       const from = model.edgeFrom[e] as number;
@@ -543,13 +626,13 @@ export function evaluateSystem(
         // their slope over the tiny no-flow weight would swamp the junction's temperature row.
         continue;
       }
-      // Energy row of the downstream node: |m| (T_arrive - T_d).
+      // Energy row of the downstream node d: |m| (H(T_arrive, p_d) - H(T_d, p_d)).
       const downstreamRow = flow > 0 ? 1 : 0;
       const downstream = downstreamRow === 0 ? from : to;
       const rowUnknown = model.unknownIndex[downstream] as number;
       if (rowUnknown < 0) continue;
-      const tDown = (x[2 * rowUnknown + 1] as number) * tS;
-      const difference = (arrival[e] as number) - tDown;
+      const difference = (arrivalEnthalpy[e] as number) - (junctionEnthalpy[rowUnknown] as number);
+      const arrivalPerT = arrivalEnthalpyPerT[e] as number;
       const magnitudeSign = flow > 0 ? 1 : -1; // d|m| = magnitudeSign dm
       const magnitude = Math.abs(flow);
       for (let column = 0; column < 2; column++) {
@@ -558,11 +641,19 @@ export function evaluateSystem(
         const b = 4 * block;
         let dP =
           magnitudeSign * (flowSlopes[4 * e + 2 * column] as number) * difference +
-          magnitude * (arrivalSlopes[4 * e + 2 * column] as number);
+          magnitude * (arrivalSlopes[4 * e + 2 * column] as number) * arrivalPerT;
         let dT =
           magnitudeSign * (flowSlopes[4 * e + 2 * column + 1] as number) * difference +
-          magnitude * (arrivalSlopes[4 * e + 2 * column + 1] as number);
-        if (column === downstreamRow) dT -= magnitude;
+          magnitude * (arrivalSlopes[4 * e + 2 * column + 1] as number) * arrivalPerT;
+        if (column === downstreamRow) {
+          dT -= magnitude * (junctionEnthalpyPerT[rowUnknown] as number);
+          // Both enthalpies are taken at p_d (0 for a perfect gas).
+          if (system.thermo !== undefined) {
+            dP +=
+              magnitude *
+              ((arrivalEnthalpyPerP[e] as number) - (junctionEnthalpyPerP[rowUnknown] as number));
+          }
+        }
         // The row is divided by a scale that grows with the inflow: d(E/s) = (dE - (E/s) ds)/s,
         // ds = T_ref d|m| (the no-flow weight's own change is negligible).
         const scaledResidual = residual[2 * rowUnknown + 1] as number;

@@ -1,7 +1,7 @@
 /**
  * Reading `gas.heatCapacity`, `gas.equationOfState` and a custom gas's critical constants: the
  * data built for each form of gas, every bad combination with its JSON path, and the refusal of
- * a network whose edges cannot use the models yet.
+ * a network whose edges cannot use the models (closed-form pipes and components).
  */
 import { describe, expect, it } from "vitest";
 import type { Gas } from "../../src/gas/gas-types.js";
@@ -184,7 +184,7 @@ describe("gas property models in the input document", () => {
     ]);
   });
 
-  it("refuses the models in a network until an edge model uses them, naming the edges", () => {
+  it("refuses the models on edges other than heat-transfer pipes, naming the edges", () => {
     const issues = issuesOf({
       preset: "nitrogen",
       heatCapacity: "nasa7",
@@ -195,7 +195,7 @@ describe("gas property models in the input document", () => {
         code: "unsupported",
         path: "/gas/equationOfState",
         message: expect.stringMatching(
-          /^"peng-robinson" cannot be used by edges P1: no edge model supports it yet .*use "ideal-gas"$/,
+          /^"peng-robinson" cannot be used by edges P1: it is supported by pipes with the "heat-transfer" model only .*use "ideal-gas"$/,
         ),
       },
       {
