@@ -309,8 +309,11 @@ async function genericSolve(system, networkSystem, tolerance) {
       .solve(Matrix.columnVector(Array.from(residual, (v) => -v)))
       .getColumn(0);
     let alpha = 1;
+    // Pressure unknowns are offsets from a reference, p = p_ref (1 + x): no step may change a
+    // pressure by more than half of itself.
     for (let j = 0; j < size; j += 2) {
-      if (Math.abs(step[j]) > 0.5 * x[j]) alpha = Math.min(alpha, (0.5 * x[j]) / Math.abs(step[j]));
+      const half = 0.5 * (1 + x[j]);
+      if (Math.abs(step[j]) > half) alpha = Math.min(alpha, half / Math.abs(step[j]));
     }
     const norm = normOf(residual);
     let accepted = false;
