@@ -650,7 +650,7 @@ export function evaluateHeatTransferPipe(
         flux = 0.5 * (lo + hi);
         continue;
       }
-      slopeG = totalPressureSlope(scratch, entrance, friction.slope * reynoldsPerFlux, 0);
+      slopeG = exitSlope(scratch, entrance, friction.slope * reynoldsPerFlux, 0, EXIT_PRESSURE);
       const residual = run.pressure - pd;
       if (residual > 0) lo = flux;
       else hi = flux;
@@ -690,9 +690,9 @@ export function evaluateHeatTransferPipe(
   out.reynolds = flux * reynoldsPerFlux;
   const dXdFlux = friction.slope * reynoldsPerFlux;
   const dXdT0 = friction.slope * out.reynolds * -muSlope;
-  const pG = totalPressureSlope(scratch, entrance, dXdFlux, 0);
-  const pP0 = totalPressureSlope(scratch, entrance, 0, 1);
-  const pT0 = totalPressureSlope(scratch, entrance, dXdT0, 2);
+  const pG = exitSlope(scratch, entrance, dXdFlux, 0, EXIT_PRESSURE);
+  const pP0 = exitSlope(scratch, entrance, 0, 1, EXIT_PRESSURE);
+  const pT0 = exitSlope(scratch, entrance, dXdT0, 2, EXIT_PRESSURE);
   const fluxPerPd = 1 / pG;
   const fluxPerP0 = -pP0 / pG;
   const fluxPerT0 = -pT0 / pG;
@@ -701,9 +701,9 @@ export function evaluateHeatTransferPipe(
   out.dMassFlowdDownstreamPressure = area * fluxPerPd;
   // Arrival: h0_out = h0_in + Q/m - g rise = h0_in + H2 - H1 (H = h + v^2/2 at the pipe's ends),
   // differentiated along the solution G(p0, T0, pd), on which p2 = pd.
-  const tG = totalTemperatureSlope(scratch, entrance, dXdFlux, 0);
-  const tP0 = totalTemperatureSlope(scratch, entrance, 0, 1) + tG * fluxPerP0;
-  const tT0 = totalTemperatureSlope(scratch, entrance, dXdT0, 2) + tG * fluxPerT0;
+  const tG = exitSlope(scratch, entrance, dXdFlux, 0, EXIT_TEMPERATURE);
+  const tP0 = exitSlope(scratch, entrance, 0, 1, EXIT_TEMPERATURE) + tG * fluxPerP0;
+  const tT0 = exitSlope(scratch, entrance, dXdT0, 2, EXIT_TEMPERATURE) + tG * fluxPerT0;
   const tPd = tG * fluxPerPd;
   const h2 = scratch.stagnationEnthalpy(pd, run.temperature, flux);
   const [h2p, h2t, h2g] = scratch.enthalpySlope as unknown as [number, number, number];
@@ -736,39 +736,29 @@ function scratchOf(out: PipeFlowEvaluation): HeatTransferScratch {
   return out.heatTransfer;
 }
 
-/**
- * d p_exit / d theta at fixed everything else, theta = G (entranceIndex 0, with the flux
- * direction), p0 (1) or T0 (2), through the inlet state, the flux and the friction parameter.
- */
-function totalPressureSlope(
-  scratch: HeatTransferScratch,
-  entrance: Entrance,
-  frictionSlope: number,
-  entranceIndex: number,
-): number {
-  const y = scratch.integrator.y;
-  const dp1 = entrance.pressureSlope[entranceIndex] as number;
-  const dt1 = entrance.temperatureSlope[entranceIndex] as number;
-  // p_exit = p1 + dp(L); sensitivities of dp: direction d at index 3 + 3 d.
-  let value = dp1 * (y[3] as number) + dt1 * (y[6] as number);
-  if (entranceIndex === 0) value += y[9] as number;
-  value += frictionSlope * (y[12] as number);
-  return value;
-}
+/** Which exit quantity {@link exitSlope} differentiates: the pressure (0) or temperature (1). */
+const EXIT_PRESSURE = 0;
+const EXIT_TEMPERATURE = 1;
 
-/** d T_exit / d theta at fixed everything else (as {@link totalPressureSlope}). */
-function totalTemperatureSlope(
+/**
+ * d p_exit / d theta (quantity EXIT_PRESSURE) or d T_exit / d theta (EXIT_TEMPERATURE) at fixed
+ * everything else, theta = G (entranceIndex 0, with the flux direction), p0 (1) or T0 (2),
+ * through the inlet state, the flux and the friction parameter. The sensitivities of the state
+ * (p, T) along direction d sit at y[3 + 3 d + quantity].
+ */
+function exitSlope(
   scratch: HeatTransferScratch,
   entrance: Entrance,
   frictionSlope: number,
   entranceIndex: number,
+  quantity: typeof EXIT_PRESSURE | typeof EXIT_TEMPERATURE,
 ): number {
   const y = scratch.integrator.y;
   const dp1 = entrance.pressureSlope[entranceIndex] as number;
   const dt1 = entrance.temperatureSlope[entranceIndex] as number;
-  let value = dp1 * (y[4] as number) + dt1 * (y[7] as number);
-  if (entranceIndex === 0) value += y[10] as number;
-  value += frictionSlope * (y[13] as number);
+  let value = dp1 * (y[3 + quantity] as number) + dt1 * (y[6 + quantity] as number);
+  if (entranceIndex === 0) value += y[9 + quantity] as number;
+  value += frictionSlope * (y[12 + quantity] as number);
   return value;
 }
 
