@@ -6,22 +6,18 @@
 import { emptyThermoState, gasState } from "../gas/thermo.js";
 import type { DesignLimits } from "../input/document-types.js";
 import { componentDetails } from "../physics/components/component-flow.js";
-import {
-  type EdgeElement,
-  edgeEndStates,
-  evaluateEdgeFlow,
-  exitPressureForFlow,
-  flowsForward,
-} from "../physics/edge-flow.js";
+import { type EdgeElement, edgeEndStates, exitPressureForFlow } from "../physics/edge-flow.js";
 import { STANDARD_GRAVITY } from "../physics/heat-transfer-pipe.js";
 import { PipeFlowEvaluation } from "../physics/pipe-flow.js";
 import {
+  edgeEndsAt,
+  emptyEdgeEnds,
   enthalpyTemperature,
+  evaluateEdgeAt,
   type NetworkSystem,
   NO_FLOW_WEIGHT,
   networkThroughput,
   nodePressure,
-  nodePressureDifference,
   nodeTemperature,
 } from "../solve/network-system.js";
 import type { EdgeResult, NetworkBalance, NodeResult, SolverWarning } from "./result-types.js";
@@ -67,44 +63,26 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
   let heatIn = 0;
   let potentialEnergyGain = 0;
   const inverse = new PipeFlowEvaluation();
+  const edgeEnds = emptyEdgeEnds();
   let largestExitPressureMismatch = 0;
 
   doc.edges.forEach((edge, e) => {
     const from = model.edgeFrom[e] as number;
     const to = model.edgeTo[e] as number;
-    const pFrom = nodePressure(system, x, from);
-    const pTo = nodePressure(system, x, to);
-    const difference = nodePressureDifference(system, x, from, to);
     const element = system.elements[e] as EdgeElement;
-    const forward = flowsForward(
-      element,
-      system.gas,
-      pFrom,
-      pTo,
-      difference,
-      nodeTemperature(system, x, from),
-      inverse,
-    );
-    // The drop in the direction of flow; negative on a falling pipe whose gas column raises
-    // the outlet pressure above the inlet's.
-    const drop = forward ? difference : -difference;
-    const upstream = forward ? from : to;
-    const downstream = forward ? to : from;
-    const pUp = forward ? pFrom : pTo;
-    const pDown = forward ? pTo : pFrom;
-    const tUp = nodeTemperature(system, x, upstream);
+    edgeEndsAt(system, x, e, inverse, edgeEnds);
+    const { forward, downstream, drop } = edgeEnds;
+    const pUp = edgeEnds.upstreamPressure;
+    const pDown = edgeEnds.downstreamPressure;
+    const tUp = edgeEnds.upstreamTemperature;
     // Evaluated afresh from the final node states, with the capacity (warm-started from the
     // solver's last evaluation of this edge for speed: the root does not depend on the start).
-    const evaluation = evaluateEdgeFlow(
-      element,
-      system.gas,
-      pUp,
-      tUp,
-      pDown,
-      forward,
+    const evaluation = evaluateEdgeAt(
+      system,
+      e,
+      edgeEnds,
       system.evaluations[e] as PipeFlowEvaluation,
       true,
-      drop,
     );
     const flow = evaluation.massFlow;
     const signed = forward ? flow : -flow;

@@ -418,6 +418,98 @@ export function nodeTemperature(system: NetworkSystem, x: Float64Array, node: nu
     : (x[2 * unknown + 1] as number) * system.temperatureScale;
 }
 
+/** The two ends of an edge at a state, in the direction of flow (see {@link edgeEndsAt}). */
+export interface EdgeEnds {
+  /** The flow runs from the edge's `from` node to its `to` node. */
+  forward: boolean;
+  /** Upstream and downstream node indices. */
+  upstream: number;
+  downstream: number;
+  /** Upstream and downstream node pressures [Pa] and the upstream node temperature [K]. */
+  upstreamPressure: number;
+  downstreamPressure: number;
+  upstreamTemperature: number;
+  /**
+   * p_up - p_down [Pa], from the pressure offsets (more exact than the difference of the two
+   * rounded pressures); negative on a falling pipe whose gas column raises its outlet pressure.
+   */
+  drop: number;
+}
+
+/** A record for {@link edgeEndsAt} to fill (reuse one across edges). */
+export function emptyEdgeEnds(): EdgeEnds {
+  return {
+    forward: true,
+    upstream: 0,
+    downstream: 0,
+    upstreamPressure: 0,
+    downstreamPressure: 0,
+    upstreamTemperature: 0,
+    drop: 0,
+  };
+}
+
+/**
+ * The ends of edge e at the scaled unknowns x, into `ends`: which way it flows (the higher
+ * pressure upstream, or the hydrostatic rule of a rising pipe: flowsForward), the upstream
+ * state, the downstream pressure and the drop between them. `scratch` is working space for the
+ * direction test of rising pipes.
+ */
+export function edgeEndsAt(
+  system: NetworkSystem,
+  x: Float64Array,
+  e: number,
+  scratch: PipeFlowEvaluation,
+  ends: EdgeEnds,
+): EdgeEnds {
+  const from = system.model.edgeFrom[e] as number;
+  const to = system.model.edgeTo[e] as number;
+  const pFrom = nodePressure(system, x, from);
+  const pTo = nodePressure(system, x, to);
+  const difference = nodePressureDifference(system, x, from, to);
+  const forward = flowsForward(
+    system.elements[e] as EdgeElement,
+    system.gas,
+    pFrom,
+    pTo,
+    difference,
+    nodeTemperature(system, x, from),
+    scratch,
+  );
+  ends.forward = forward;
+  ends.upstream = forward ? from : to;
+  ends.downstream = forward ? to : from;
+  ends.upstreamPressure = forward ? pFrom : pTo;
+  ends.downstreamPressure = forward ? pTo : pFrom;
+  ends.upstreamTemperature = nodeTemperature(system, x, ends.upstream);
+  ends.drop = forward ? difference : -difference;
+  return ends;
+}
+
+/**
+ * Flow through edge e between the ends found by {@link edgeEndsAt}, into `out` (see
+ * evaluateEdgeFlow; `needCapacity` as there).
+ */
+export function evaluateEdgeAt(
+  system: NetworkSystem,
+  e: number,
+  ends: EdgeEnds,
+  out: PipeFlowEvaluation,
+  needCapacity: boolean,
+): PipeFlowEvaluation {
+  return evaluateEdgeFlow(
+    system.elements[e] as EdgeElement,
+    system.gas,
+    ends.upstreamPressure,
+    ends.upstreamTemperature,
+    ends.downstreamPressure,
+    ends.forward,
+    out,
+    needCapacity,
+    ends.drop,
+  );
+}
+
 /**
  * Evaluate residuals (and, if asked, the Jacobian) at the scaled unknowns x.
  * `throughput` fixes the mass scale; pass undefined to take it from this state.
@@ -447,38 +539,15 @@ export function evaluateSystem(
   // Round-off of each flow: its change for a few units of rounding in its end pressures [kg/s].
   const nodeFlowNoise = new Float64Array(nodeCount);
 
+  const ends = emptyEdgeEnds();
   for (let e = 0; e < edgeCount; e++) {
     const from = model.edgeFrom[e] as number;
     const to = model.edgeTo[e] as number;
-    const pFrom = nodePressure(system, x, from);
-    const pTo = nodePressure(system, x, to);
-    const difference = nodePressureDifference(system, x, from, to);
     const element = system.elements[e] as EdgeElement;
     const evaluation = system.evaluations[e] as PipeFlowEvaluation;
-    const forward = flowsForward(
-      element,
-      system.gas,
-      pFrom,
-      pTo,
-      difference,
-      nodeTemperature(system, x, from),
-      evaluation,
-    );
-    const upstream = forward ? from : to;
-    const pUp = forward ? pFrom : pTo;
-    const pDown = forward ? pTo : pFrom;
-    const tUp = nodeTemperature(system, x, upstream);
-    const result = evaluateEdgeFlow(
-      element,
-      system.gas,
-      pUp,
-      tUp,
-      pDown,
-      forward,
-      evaluation,
-      false,
-      forward ? difference : -difference,
-    );
+    edgeEndsAt(system, x, e, evaluation, ends);
+    const { forward, upstream, downstreamPressure: pDown, upstreamPressure: pUp } = ends;
+    const result = evaluateEdgeAt(system, e, ends, evaluation, false);
     const sign = forward ? 1 : -1;
     massFlow[e] = sign * result.massFlow;
     choked[e] = result.choked ? 1 : 0;
@@ -499,7 +568,7 @@ export function evaluateSystem(
     arrivalSlopes[4 * e + downP] = result.dArrivalTemperaturedDownstreamPressure;
     const downstreamNode = forward ? to : from;
     nodeInflow[downstreamNode] = (nodeInflow[downstreamNode] as number) + result.massFlow;
-    const exactDrop = element.kind === "pipe" && isCreepingFlow(Math.abs(difference), pUp);
+    const exactDrop = element.kind === "pipe" && isCreepingFlow(Math.abs(ends.drop), pUp);
     const noise =
       FLOW_ROUNDING *
       (Math.abs(result.dMassFlowdUpstreamPressure) *

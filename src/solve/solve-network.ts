@@ -6,18 +6,17 @@ import type { CheckedDocument } from "../input/document-types.js";
 import { InputError } from "../input/issues.js";
 import { checkedDocumentOrThrow } from "../input/read-document.js";
 import { buildNetwork, type NetworkModel } from "../model/build-network.js";
-import { type EdgeElement, evaluateEdgeFlow, flowsForward } from "../physics/edge-flow.js";
 import { PipeFlowEvaluation } from "../physics/pipe-flow.js";
 import { designWarnings, resultsAtState } from "../results/build-results.js";
 import type { NetworkResult, NoSolutionDiagnosis, SolverWarning } from "../results/result-types.js";
 import { initialGuess } from "./initial-guess.js";
 import {
   createNetworkSystem,
+  edgeEndsAt,
+  emptyEdgeEnds,
+  evaluateEdgeAt,
   evaluateSystem,
   type NetworkSystem,
-  nodePressure,
-  nodePressureDifference,
-  nodeTemperature,
   pressureUnknown,
   withPressureReferences,
 } from "./network-system.js";
@@ -330,33 +329,11 @@ function diagnose(
     const at = withDemandScale(system, rescue.scale);
     const evaluation = evaluateSystem(at, rescue.outcome.x, false);
     const scratch = new PipeFlowEvaluation();
+    const ends = emptyEdgeEnds();
     const limitingIndices: number[] = [];
     for (let e = 0; e < system.edgeCount; e++) {
-      const from = system.model.edgeFrom[e] as number;
-      const to = system.model.edgeTo[e] as number;
-      const pFrom = nodePressure(at, rescue.outcome.x, from);
-      const pTo = nodePressure(at, rescue.outcome.x, to);
-      const difference = nodePressureDifference(at, rescue.outcome.x, from, to);
-      const forward = flowsForward(
-        system.elements[e] as EdgeElement,
-        system.gas,
-        pFrom,
-        pTo,
-        difference,
-        nodeTemperature(at, rescue.outcome.x, from),
-        scratch,
-      );
-      const edgeState = evaluateEdgeFlow(
-        system.elements[e] as EdgeElement,
-        system.gas,
-        forward ? pFrom : pTo,
-        nodeTemperature(at, rescue.outcome.x, forward ? from : to),
-        forward ? pTo : pFrom,
-        forward,
-        scratch,
-        true,
-        forward ? difference : -difference,
-      );
+      edgeEndsAt(at, rescue.outcome.x, e, scratch, ends);
+      const edgeState = evaluateEdgeAt(at, e, ends, scratch, true);
       const flow = Math.abs(evaluation.massFlow[e] as number);
       const capacity = edgeState.capacity;
       if (edgeState.choked || (capacity > 0 && flow / capacity > 0.98)) {
