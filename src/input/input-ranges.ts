@@ -4,6 +4,7 @@
  */
 
 import type { QuantityInput } from "./document-types.js";
+import type { QuantityKind } from "./quantity.js";
 import type { ValueReader } from "./read-components.js";
 
 /** The plausible range of one input of the ideal-gas network model, in SI. */
@@ -89,6 +90,20 @@ export function inRange(
     message: `${rangeNumber(value)} ${range.unit} is outside the range of ${range.what}: ${rangeNumber(range.low)} to ${rangeNumber(range.high)} ${range.unit} (got ${JSON.stringify(input)})`,
   });
   return undefined;
+}
+
+/**
+ * A quantity read into SI (`reader.quantity`: units, JSON path) and then checked against its
+ * range by {@link inRange}: undefined, with an issue at `path`, if it is unreadable or out of range.
+ */
+export function quantityInRange(
+  reader: ValueReader,
+  input: QuantityInput | undefined,
+  kind: QuantityKind,
+  path: string,
+  range: InputRange,
+): number | undefined {
+  return inRange(reader, reader.quantity(input, kind, path), input, path, range);
 }
 
 /** A number for a range message: four digits, powers of ten as "1e8" when large or small. */

@@ -15,7 +15,7 @@ import type {
   QuantityInput,
   SolverSettings,
 } from "./document-types.js";
-import { INPUT_RANGES, inRange } from "./input-ranges.js";
+import { INPUT_RANGES, inRange, quantityInRange } from "./input-ranges.js";
 import { InputError, type InputIssue, jsonPointer, sortIssues } from "./issues.js";
 import { firstJsonSyntaxError } from "./json-syntax-error.js";
 import { networkSchema } from "./network-schema.js";
@@ -242,10 +242,10 @@ function convertDocument(doc: NetworkDocument): ReadResult {
     ) ?? DEFAULT_AMBIENT.pressure;
   reader.ambientPressure = ambientPressure;
   const ambientTemperature =
-    inRange(
+    quantityInRange(
       reader,
-      reader.quantity(doc.ambient?.temperature, "temperature", "/ambient/temperature"),
       doc.ambient?.temperature,
+      "temperature",
       "/ambient/temperature",
       INPUT_RANGES.temperature,
     ) ?? DEFAULT_AMBIENT.temperature;
@@ -317,27 +317,27 @@ function readNode(
 ): CheckedNode {
   const path = jsonPointer("nodes", index);
   const checked: CheckedNode = { id: node.id, kind: node.kind, demand: 0, elevation: 0 };
-  const elevation = inRange(
+  const elevation = quantityInRange(
     reader,
-    reader.quantity(node.elevation, "length", `${path}/elevation`),
     node.elevation,
+    "length",
     `${path}/elevation`,
     INPUT_RANGES.elevation,
   );
   if (elevation !== undefined) checked.elevation = elevation;
   if (node.kind === "reservoir") {
-    const pressure = inRange(
+    const pressure = quantityInRange(
       reader,
-      reader.quantity(node.pressure, "pressure", `${path}/pressure`),
       node.pressure,
+      "pressure",
       `${path}/pressure`,
       INPUT_RANGES.pressure,
     );
     if (pressure !== undefined) checked.pressure = pressure;
-    const temperature = inRange(
+    const temperature = quantityInRange(
       reader,
-      reader.quantity(node.temperature, "temperature", `${path}/temperature`),
       node.temperature,
+      "temperature",
       `${path}/temperature`,
       INPUT_RANGES.temperature,
     );
@@ -348,10 +348,10 @@ function readNode(
   const demand = reader.quantity(node.demand, "massFlow", `${path}/demand`);
   const demandInRange = inRange(reader, demand, node.demand, `${path}/demand`, INPUT_RANGES.demand);
   if (demandInRange !== undefined) checked.demand = demandInRange;
-  const temperature = inRange(
+  const temperature = quantityInRange(
     reader,
-    reader.quantity(node.temperature, "temperature", `${path}/temperature`),
     node.temperature,
+    "temperature",
     `${path}/temperature`,
     INPUT_RANGES.temperature,
   );
@@ -419,32 +419,24 @@ function readHeatExchange(
     }
     return undefined;
   }
-  const perArea = inRange(
+  const perArea = quantityInRange(
     reader,
-    reader.quantity(
-      edge.heatTransferCoefficient,
-      "heatTransferCoefficient",
-      `${path}/heatTransferCoefficient`,
-    ),
     edge.heatTransferCoefficient,
+    "heatTransferCoefficient",
     `${path}/heatTransferCoefficient`,
     INPUT_RANGES.heatTransferCoefficient,
   );
-  const perLength = inRange(
+  const perLength = quantityInRange(
     reader,
-    reader.quantity(
-      edge.heatTransferPerLength,
-      "heatTransferPerLength",
-      `${path}/heatTransferPerLength`,
-    ),
     edge.heatTransferPerLength,
+    "heatTransferPerLength",
     `${path}/heatTransferPerLength`,
     INPUT_RANGES.heatTransferPerLength,
   );
-  const surrounding = inRange(
+  const surrounding = quantityInRange(
     reader,
-    reader.quantity(edge.surroundingTemperature, "temperature", `${path}/surroundingTemperature`),
     edge.surroundingTemperature,
+    "temperature",
     `${path}/surroundingTemperature`,
     INPUT_RANGES.temperature,
   );

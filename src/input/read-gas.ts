@@ -16,7 +16,7 @@ import {
 } from "../gas/gas.js";
 import type { Gas, PengRobinsonEquationOfState, ViscosityLaw } from "../gas/gas-types.js";
 import type { CheckedEdge, GasInput, PipeModelName } from "./document-types.js";
-import { INPUT_RANGES, inRange } from "./input-ranges.js";
+import { INPUT_RANGES, inRange, quantityInRange } from "./input-ranges.js";
 import type { ValueReader } from "./read-components.js";
 
 /**
@@ -358,14 +358,10 @@ function readViscosity(
     "/gas/viscosity/referenceViscosity",
     INPUT_RANGES.viscosity,
   );
-  const referenceTemperature = inRange(
+  const referenceTemperature = quantityInRange(
     reader,
-    reader.quantity(
-      input.referenceTemperature,
-      "temperature",
-      "/gas/viscosity/referenceTemperature",
-    ),
     input.referenceTemperature,
+    "temperature",
     "/gas/viscosity/referenceTemperature",
     INPUT_RANGES.temperature,
   );
