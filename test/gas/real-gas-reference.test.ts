@@ -39,7 +39,14 @@ interface IdealGasRow {
 }
 
 interface RealGasFixture {
-  pure: Record<string, { equationOfState: string; states: ReferenceState[] }>;
+  pure: Record<
+    string,
+    {
+      equationOfState: string;
+      states: ReferenceState[];
+      secondVirial: { T: number; B_m3_per_mol: number }[];
+    }
+  >;
   mixtures: Record<string, { states: ReferenceState[] }>;
   idealGas: Record<string, { validUpTo_K: number; values: IdealGasRow[] }>;
 }
