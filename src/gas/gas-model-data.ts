@@ -85,7 +85,7 @@ export const NASA7: Partial<Record<SpeciesName, Nasa7Data>> = {
     low: [2.5, 0, 0, 0, 0, -745.375, 4.37967491],
     high: [2.5, 0, 0, 0, 0, -745.375, 4.37967491],
   },
-  /** Exact for a monatomic gas; CoolProp 8.0.0 cp0 (Ortiz-Vega et al. 2019) agrees to 4e-7. */
+  /** Exact for a monatomic gas; CoolProp 8.0.0 cp0 (Ortiz-Vega et al. 2019) agrees to 3e-7. */
   helium: {
     formula: "He",
     lowTemperature: 200,
