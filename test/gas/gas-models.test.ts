@@ -35,7 +35,7 @@ function nasaSpecies(name: SpeciesName): Nasa7Species {
 const NASA_SPECIES = Object.keys(NASA7) as SpeciesName[];
 
 describe("NASA 7-coefficient data (recalled from the Burcat database: closed-form checks)", () => {
-  it("has data for every preset but natural gas, whose C4+ alkanes have none", () => {
+  it("has data for every preset but natural gas, whose C2-C6 alkanes have none (test/gas/real-gas-reference.test.ts, docs/validation.md)", () => {
     for (const name of ["air", "nitrogen", "oxygen", "argon", "helium", "hydrogen"] as const) {
       expect(gasPresetModels(name).heatCapacity).toEqual(["constant", "nasa7"]);
     }
