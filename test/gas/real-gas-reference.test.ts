@@ -52,6 +52,7 @@ interface RealGasFixture {
   mixtures: Record<string, { states: ReferenceState[] }>;
   idealGas: Record<string, { validFrom_K: number; validUpTo_K: number; values: IdealGasRow[] }>;
   critical: Record<string, { Tc: number; pc: number; omega: number }>;
+  vapourPressure: Record<string, { T: number; p: number }[]>;
 }
 
 const fixture = JSON.parse(
@@ -266,6 +267,30 @@ describe("Peng-Robinson against the reference equations of state (CoolProp 8.0.0
         const b = ((gasState(gas, p, T).compressibility - 1) * MOLAR_GAS_CONSTANT * T) / p;
         expect(b, `${name} B at ${T} K`).toBeLessThan(B_m3_per_mol);
         expectWithin((b - B_m3_per_mol) * 1e6, 17, `${name} B at ${T} K [cm3/mol]`, "cm3/mol");
+      }
+    }
+  });
+
+  it("flags condensation at the reference's vapour pressure (methane, nitrogen, CO2, O2, Ar at 0.6-0.95 Tc)", () => {
+    // The pressure at which `condensing` switches on at T is PR's vapour pressure (equal
+    // residual Gibbs energies of its two roots). Peng and Robinson fitted kappa(omega) to
+    // vapour pressures of such fluids; measured here within 1.51 % of the reference equations'
+    // (nitrogen at 0.6 Tc; 0.14-1.2 % elsewhere). Bound 2 %: a state within 2 % of saturation
+    // may be flagged on the wrong side.
+    for (const [name, rows] of Object.entries(fixture.vapourPressure)) {
+      const gas = realGas(name as PresetWithEquation);
+      expect(rows.length, name).toBeGreaterThanOrEqual(3);
+      for (const { T, p } of rows) {
+        let low = 0.5 * p;
+        let high = 2 * p;
+        expect(gasState(gas, low, T).condensing, `${name} ${T} K`).toBe(false);
+        expect(gasState(gas, high, T).condensing, `${name} ${T} K`).toBe(true);
+        for (let i = 0; i < 60; i++) {
+          const middle = Math.sqrt(low * high);
+          if (gasState(gas, middle, T).condensing) high = middle;
+          else low = middle;
+        }
+        expectWithin(low / p - 1, 0.02, `${name} vapour pressure at ${T} K`);
       }
     }
   });
