@@ -109,7 +109,7 @@ function where(label: string, row: ReferenceState): string {
 describe("critical constants (Poling et al. 5th ed., from memory) against the reference equations", () => {
   it("agree with the critical points and acentric factors of CoolProp 8.0.0's equations", () => {
     // Different compilations of measured critical points: Tc agree to about 0.1 %, pc to about
-    // 1 % (hydrogen's differs by 1.3 %: normal against equilibrium hydrogen), omega to a few
+    // 1 % (hydrogen differs most, 1.3 %, from the normal-hydrogen equation), omega to a few
     // thousandths (helium 0.0065). Tolerances 0.2 %, 1.5 %, 0.01: a wrongly recalled digit
     // beyond the third shows.
     const names = Object.keys(CRITICAL) as SpeciesName[];
@@ -181,7 +181,9 @@ function bounds(label: string, row: ReferenceState): { z: number; a: number; h: 
   const region = regionOf(label, row);
   const p = row.p;
   if (p <= 10e5) return { z: 0.01, a: 0.015, h: region === "near-critical" ? 2.5 : 1 };
-  if (p <= 50e5) return { z: region === "classical" ? 0.035 : 0.05, a: 0.03, h: 4 };
+  if (p <= 50e5) {
+    return { z: { classical: 0.035, "near-critical": 0.05, quantum: 0.03 }[region], a: 0.03, h: 4 };
+  }
   if (region === "near-critical") return { z: 0.07, a: 0.17, h: 5 };
   if (region === "quantum") return { z: 0.06, a: 0.04, h: 9 };
   return { z: 0.04, a: p <= 100e5 ? 0.02 : 0.08, h: 7 };
