@@ -40,6 +40,7 @@
  * @module
  */
 import type { Gas } from "../gas/gas-types.js";
+import type { PengRobinsonValues } from "../gas/peng-robinson.js";
 import {
   emptyThermoState,
   gasState,
@@ -764,9 +765,12 @@ function exitSlope(
 
 /**
  * Arrival stagnation temperature at the downstream plenum pressure from the stagnation enthalpy
- * h0_out, with its derivatives from those of h0_out (d/dp0, d/dT0, d/dpd along the solution).
+ * h0_out, with its derivatives from those of h0_out (d/dp0, d/dT0, d/dpd along the solution):
+ * h(T_arrive, pd) = h0_out, so dT_arrive = (dh0_out - (dh/dp)_T dpd) / cp at (T_arrive, pd).
+ * Also used by the real-gas isothermal pipe (src/physics/real-gas-pipe.ts). `state` and
+ * `eosScratch` are working records (allocation-free when given).
  */
-function setArrival(
+export function setArrival(
   gas: Gas,
   h0Out: number,
   pd: number,
@@ -775,9 +779,10 @@ function setArrival(
   dP0: number,
   dT0: number,
   dPd: number,
+  eosScratch?: PengRobinsonValues,
 ): void {
-  const arrival = temperatureFromEnthalpy(gas, h0Out, pd);
-  const s = gasState(gas, pd, arrival, state);
+  const arrival = temperatureFromEnthalpy(gas, h0Out, pd, state, eosScratch);
+  const s = gasState(gas, pd, arrival, state, eosScratch);
   const perEnthalpy = 1 / s.specificHeatCp;
   out.arrivalTemperature = arrival;
   out.dArrivalTemperaturedUpstreamPressure = perEnthalpy * dP0;
