@@ -56,6 +56,8 @@ export class RealGasScratch {
   chokedFlux = 0;
   chokedExitPressure = 0;
   chokedExitEnthalpy = 0;
+  /** The ideal gas's d phi / d ln r at the last {@link chokedResidual} (a Newton slope). */
+  chokedSlope = 0;
   chokedFriction: FrictionScratch = {
     value: 0,
     slope: 0,
@@ -188,23 +190,11 @@ export function evaluateRealGasIsothermal(
 
   let chokedFlux = Number.NaN;
   let chokedExitPressure = Number.NaN;
-  const solveCapacity = () => {
-    out.lastCapacityInletMach = chokedState(
-      pipe,
-      thermoGas,
-      p1,
-      t,
-      reynoldsPerFlux,
-      out.lastCapacityInletMach,
-      frictionLaw,
-      scratch,
-    ); // stores p2*/p1 for this model
+  if (needCapacity || out.choked || !(drop > 0)) {
+    solveCapacity(pipe, thermoGas, p1, t, reynoldsPerFlux, area, frictionLaw, scratch, out);
     chokedFlux = scratch.chokedFlux;
     chokedExitPressure = scratch.chokedExitPressure;
-    out.capacity = chokedFlux * area;
-    out.capacityKnown = true;
-  };
-  if (needCapacity || out.choked || !(drop > 0)) solveCapacity();
+  }
 
   if (!(drop > 0)) {
     // At rest: the laminar (Hagen-Poiseuille) slope m = rho D^2 A (p1 - pd) / (32 mu L).
@@ -250,7 +240,9 @@ export function evaluateRealGasIsothermal(
       out,
     );
     if (!out.capacityKnown && !((flux * flux * rho2p) / (rho2 * rho2) < NEAR_CHOKE * NEAR_CHOKE)) {
-      solveCapacity();
+      solveCapacity(pipe, thermoGas, p1, t, reynoldsPerFlux, area, frictionLaw, scratch, out);
+      chokedFlux = scratch.chokedFlux;
+      chokedExitPressure = scratch.chokedExitPressure;
       choked = !(pd > chokedExitPressure);
       if (!choked) {
         flux = isothermalFlux(
@@ -331,18 +323,35 @@ export function evaluateRealGasIsothermal(
   out.heatFlow = massFlow * (exitEnthalpy - h1);
   const dp = CAPACITY_STEP * p1;
   const dt = CAPACITY_STEP * t;
-  const at = (pressure: number, temperature: number): number => {
-    const perFlux = pipe.diameter / gas.viscosity(temperature);
-    chokedState(pipe, thermoGas, pressure, temperature, perFlux, ratio, frictionLaw, scratch);
-    return scratch.chokedFlux;
-  };
-  const fluxPlusP = at(p1 + dp, t);
+  chokedState(pipe, thermoGas, p1 + dp, t, reynoldsPerFlux, ratio, frictionLaw, scratch);
+  const fluxPlusP = scratch.chokedFlux;
   const enthalpyPlusP = scratch.chokedExitEnthalpy;
-  const fluxMinusP = at(p1 - dp, t);
+  chokedState(pipe, thermoGas, p1 - dp, t, reynoldsPerFlux, ratio, frictionLaw, scratch);
+  const fluxMinusP = scratch.chokedFlux;
   const enthalpyMinusP = scratch.chokedExitEnthalpy;
-  const fluxPlusT = at(p1, t + dt);
+  chokedState(
+    pipe,
+    thermoGas,
+    p1,
+    t + dt,
+    pipe.diameter / gas.viscosity(t + dt),
+    ratio,
+    frictionLaw,
+    scratch,
+  );
+  const fluxPlusT = scratch.chokedFlux;
   const enthalpyPlusT = scratch.chokedExitEnthalpy;
-  const fluxMinusT = at(p1, t - dt);
+  chokedState(
+    pipe,
+    thermoGas,
+    p1,
+    t - dt,
+    pipe.diameter / gas.viscosity(t - dt),
+    ratio,
+    frictionLaw,
+    scratch,
+  );
+  const fluxMinusT = scratch.chokedFlux;
   const enthalpyMinusT = scratch.chokedExitEnthalpy;
   out.dMassFlowdUpstreamPressure = (area * (fluxPlusP - fluxMinusP)) / (2 * dp);
   out.dMassFlowdUpstreamTemperature = (area * (fluxPlusT - fluxMinusT)) / (2 * dt);
@@ -421,37 +430,18 @@ function chokedState(
   frictionLaw: FrictionLaw,
   scratch: RealGasScratch,
 ): number {
-  const friction = scratch.chokedFriction;
   const rho1 = gasState(gas, p1, t, scratch.inlet, scratch.equationOfState).density;
-  let chokedFlux = 0;
-  let exitEnthalpy = 0;
-  let approximateSlope = 0;
-  const residual = (ratio: number): number => {
-    const p2 = ratio * p1;
-    const exit = gasState(gas, p2, t, scratch.exit, scratch.equationOfState);
-    const rho2 = exit.density;
-    chokedFlux = rho2 / Math.sqrt(exit.densityPressureSlope);
-    exitEnthalpy = exit.enthalpy + (0.5 * chokedFlux * chokedFlux) / (rho2 * rho2);
-    const reynolds = chokedFlux * reynoldsPerFlux;
-    frictionLaw(pipe, reynolds, friction);
-    const total = 0.5 * friction.value + Math.log(rho1 / rho2);
-    isothermIntegrals(gas, p2, p1 * (1 - ratio), t, scratch);
-    const integral = scratch.densityIntegral;
-    // d phi / d ln r of an ideal gas: 2 + (X_Re Re - 1) / (X/2 + L) + rho2 p2 / integral.
-    approximateSlope = 2 + (friction.slope * reynolds - 1) / total + (rho2 * p2) / integral;
-    return Math.log((chokedFlux * chokedFlux * total) / integral);
-  };
   let lo = 0;
   let hi = 1;
   let ratio = guess > 0 && guess < 1 ? guess : 0.5;
-  let value = residual(ratio);
+  let value = chokedResidual(pipe, gas, p1, t, rho1, reynoldsPerFlux, ratio, frictionLaw, scratch);
   let previousRatio = Number.NaN;
   let previousValue = Number.NaN;
   for (let iteration = 0; iteration < 100; iteration++) {
     if (Math.abs(value) <= 1e-14) break;
     if (value > 0) hi = ratio;
     else lo = ratio;
-    let slope = approximateSlope;
+    let slope = scratch.chokedSlope;
     if (Number.isFinite(previousValue) && previousValue !== value) {
       slope = (value - previousValue) / Math.log(ratio / previousRatio);
     }
@@ -461,13 +451,70 @@ function chokedState(
     previousRatio = ratio;
     previousValue = value;
     ratio = next;
-    value = residual(ratio);
+    value = chokedResidual(pipe, gas, p1, t, rho1, reynoldsPerFlux, ratio, frictionLaw, scratch);
     if (change <= 1e-14 * ratio) break;
   }
-  scratch.chokedFlux = chokedFlux;
   scratch.chokedExitPressure = ratio * p1;
-  scratch.chokedExitEnthalpy = exitEnthalpy;
   return ratio;
+}
+
+/**
+ * phi(r) of {@link chokedState} at r = p2/p1, leaving G*(p2), h(p2, T) + G*^2/(2 rho2^2) and
+ * the ideal gas's d phi / d ln r (2 + (X_Re Re - 1)/(X/2 + L) + rho2 p2 / integral) in
+ * `scratch`.
+ */
+function chokedResidual(
+  pipe: PipeGeometry,
+  gas: Gas,
+  p1: number,
+  t: number,
+  rho1: number,
+  reynoldsPerFlux: number,
+  ratio: number,
+  frictionLaw: FrictionLaw,
+  scratch: RealGasScratch,
+): number {
+  const friction = scratch.chokedFriction;
+  const p2 = ratio * p1;
+  const exit = gasState(gas, p2, t, scratch.exit, scratch.equationOfState);
+  const rho2 = exit.density;
+  const chokedFlux = rho2 / Math.sqrt(exit.densityPressureSlope);
+  scratch.chokedFlux = chokedFlux;
+  scratch.chokedExitEnthalpy = exit.enthalpy + (0.5 * chokedFlux * chokedFlux) / (rho2 * rho2);
+  const reynolds = chokedFlux * reynoldsPerFlux;
+  frictionLaw(pipe, reynolds, friction);
+  const total = 0.5 * friction.value + Math.log(rho1 / rho2);
+  isothermIntegrals(gas, p2, p1 * (1 - ratio), t, scratch);
+  const integral = scratch.densityIntegral;
+  scratch.chokedSlope = 2 + (friction.slope * reynolds - 1) / total + (rho2 * p2) / integral;
+  return Math.log((chokedFlux * chokedFlux * total) / integral);
+}
+
+/** Solve the capacity of a real-gas isothermal pipe into `scratch` and `out` (p2* / p1 kept). */
+function solveCapacity(
+  pipe: PipeGeometry,
+  gas: Gas,
+  p1: number,
+  t: number,
+  reynoldsPerFlux: number,
+  area: number,
+  frictionLaw: FrictionLaw,
+  scratch: RealGasScratch,
+  out: PipeFlowEvaluation,
+): void {
+  // lastCapacityInletMach stores p2*/p1 for this model.
+  out.lastCapacityInletMach = chokedState(
+    pipe,
+    gas,
+    p1,
+    t,
+    reynoldsPerFlux,
+    out.lastCapacityInletMach,
+    frictionLaw,
+    scratch,
+  );
+  out.capacity = scratch.chokedFlux * area;
+  out.capacityKnown = true;
 }
 
 /**
