@@ -71,6 +71,9 @@ const SONIC_MARGIN = 1e-4;
 /** Relative step of the central differences of the right-hand side. */
 const DIFFERENCE_STEP = 6e-6;
 
+/** Relative step of the central differences of a real gas's entrance in the plenum state. */
+const ENTRANCE_STEP = 1e-6;
+
 /** Relative step of the one-sided differences of the capacity (choked derivatives). */
 const CAPACITY_STEP = 1e-5;
 
@@ -250,12 +253,31 @@ export class HeatTransferScratch {
    * isentropic form with the plenum's exponent rho a^2/p is exact for a perfect gas only, and
    * off by O(M^2 (1 - Z)) in enthalpy otherwise). The slopes of T1 follow from the same
    * condition: dT1 = (dh0 - H_p dp1 - H_G dG) / H_T, H = h + v^2/2 at fixed G. The Mach number
-   * becomes v1 / a(p1, T1). A perfect gas is left as it is (its entrance is exact).
+   * becomes v1 / a(p1, T1). The slopes of p1 with respect to p0 and T0 also follow the
+   * plenum's exponent and Z R, which change with (p0, T0) for such a gas: by central differences
+   * of the isentropic form (relative step 1e-6; no integration involved). A perfect gas is left
+   * as it is (its entrance and slopes are exact).
    */
-  closeEntranceEnergy(flux: number, h0: number, dh0dp0: number, dh0dT0: number): void {
+  closeEntranceEnergy(
+    flux: number,
+    p0: number,
+    t0: number,
+    h0: number,
+    dh0dp0: number,
+    dh0dT0: number,
+  ): void {
     const gas = this.gas as Gas;
     if (isPerfectGas(gas)) return;
     const entrance = this.entrance;
+    const p1s = entrance.pressureSlope;
+    const dp = ENTRANCE_STEP * p0;
+    const dt = ENTRANCE_STEP * t0;
+    p1s[1] =
+      (this.entrancePressureAt(flux, p0 + dp, t0) - this.entrancePressureAt(flux, p0 - dp, t0)) /
+      (2 * dp);
+    p1s[2] =
+      (this.entrancePressureAt(flux, p0, t0 + dt) - this.entrancePressureAt(flux, p0, t0 - dt)) /
+      (2 * dt);
     const p1 = entrance.pressure;
     let t1 = entrance.temperature;
     const slope = this.enthalpySlope;
@@ -269,7 +291,6 @@ export class HeatTransferScratch {
     const hp = slope[0] as number;
     const ht = slope[1] as number;
     const hg = slope[2] as number;
-    const p1s = entrance.pressureSlope;
     const t1s = entrance.temperatureSlope;
     entrance.temperature = t1;
     t1s[0] = -(hp * (p1s[0] as number) + hg) / ht;
@@ -278,6 +299,24 @@ export class HeatTransferScratch {
     const s = this.state;
     entrance.mach = flux / s.density / s.soundSpeed;
   }
+
+  /** Inlet pressure of the isentropic form from a plenum (p0, T0) with its own exponent and Z R. */
+  private entrancePressureAt(flux: number, p0: number, t0: number): number {
+    const plenum = gasState(this.gas as Gas, p0, t0, this.probeState);
+    const kappa = (plenum.density * plenum.soundSpeed * plenum.soundSpeed) / p0;
+    const gasConstant = p0 / (plenum.density * t0);
+    return isentropicEntrance(flux, p0, t0, kappa, gasConstant, this.probeEntrance)
+      ? this.probeEntrance.pressure
+      : Number.NaN;
+  }
+  private readonly probeState: ThermoState = emptyThermoState();
+  private readonly probeEntrance: Entrance = {
+    pressure: 0,
+    temperature: 0,
+    mach: 0,
+    pressureSlope: new Float64Array(3),
+    temperatureSlope: new Float64Array(3),
+  };
 
   private slopes(y: Float64Array, out: Float64Array): boolean {
     const p = this.inletPressure + (y[0] as number);
@@ -604,7 +643,7 @@ export function evaluateHeatTransferPipe(
   // Integrate at flux G from the plenum; false if the entrance cannot pass it.
   const runAt = (flux: number, withSensitivities: boolean): PipeRun | undefined => {
     if (!isentropicEntrance(flux, p0, t0, kappa, gasConstant, entrance)) return undefined;
-    scratch.closeEntranceEnergy(flux, h0, dh0dp0, dh0dT0);
+    scratch.closeEntranceEnergy(flux, p0, t0, h0, dh0dp0, dh0dT0);
     context.friction(context.pipe, flux * reynoldsPerFlux, friction);
     scratch.frictionPerLength = friction.value / length;
     scratch.inletPressure = entrance.pressure;
@@ -1014,7 +1053,7 @@ function capacityAt(
   const entrance = scratch.entrance;
   const runAt = (flux: number, withSensitivities: boolean): PipeRun | undefined => {
     if (!isentropicEntrance(flux, p0, t0, kappa, gasConstant, entrance)) return undefined;
-    scratch.closeEntranceEnergy(flux, h0, dh0dp0, dh0dT0);
+    scratch.closeEntranceEnergy(flux, p0, t0, h0, dh0dp0, dh0dT0);
     context.friction(context.pipe, flux * reynoldsPerFlux, friction);
     scratch.frictionPerLength = friction.value / length;
     scratch.inletPressure = entrance.pressure;
@@ -1126,7 +1165,7 @@ export function heatTransferOutlet(
   const flux = massFlow / area;
   const entrance = scratch.entrance;
   if (!isentropicEntrance(flux, p0, t0, kappa, gasConstant, entrance)) return false;
-  scratch.closeEntranceEnergy(flux, h0, dh0dp0, dh0dT0);
+  scratch.closeEntranceEnergy(flux, p0, t0, h0, dh0dp0, dh0dT0);
   const reynolds = (flux * pipe.diameter) / viscosity(t0);
   frictionLaw(pipe, reynolds, out.friction);
   scratch.frictionPerLength = out.friction.value / pipe.length;

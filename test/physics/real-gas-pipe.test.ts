@@ -267,3 +267,60 @@ describe("adiabatic pipe with cp(T) or a real gas (heat-transfer integrator, no 
     expect(Math.abs(arriving - h0)).toBeLessThan(1e-6);
   });
 });
+
+describe("derivatives of the integrated pipe with Peng-Robinson (the entrance closing the first law)", () => {
+  // As test/physics/heat-transfer-pipe.test.ts checks the perfect gas: methane at 60 bar, an
+  // adiabatic pipe (integrated) and a heat-transfer pipe losing heat to 263 K.
+  const pipes = [
+    pipeGeometry({ length: 60, diameter: 0.05, roughness: 5e-5, model: "adiabatic" }),
+    pipeGeometry({
+      length: 60,
+      diameter: 0.05,
+      roughness: 5e-5,
+      model: "heat-transfer",
+      heatTransferPerLength: 30,
+      surroundingTemperature: 263.15,
+    }),
+  ];
+  const kernel = pipeGas(methaneReal);
+  for (const geometry of pipes) {
+    for (const pd of [55e5, 40e5]) {
+      it(`match central differences of flow and arrival (${geometry.model}, pd ${pd} Pa)`, () => {
+        const evaluate = (p0: number, t0: number, d: number) =>
+          evaluatePipeFlow(geometry, kernel, p0, t0, d, new PipeFlowEvaluation());
+        const p0 = 60e5;
+        const t0 = 300;
+        const base = evaluate(p0, t0, pd);
+        expect(base.choked).toBe(false);
+        const step = 1e-4 * (p0 - pd);
+        const checks: [number, (h: number) => number, number][] = [
+          [base.dMassFlowdUpstreamPressure, (h) => evaluate(p0 + h, t0, pd).massFlow, step],
+          [base.dMassFlowdUpstreamTemperature, (h) => evaluate(p0, t0 + h, pd).massFlow, 1e-2],
+          [base.dMassFlowdDownstreamPressure, (h) => evaluate(p0, t0, pd + h).massFlow, step],
+          [
+            base.dArrivalTemperaturedUpstreamPressure,
+            (h) => evaluate(p0 + h, t0, pd).arrivalTemperature,
+            step,
+          ],
+          [
+            base.dArrivalTemperaturedUpstreamTemperature,
+            (h) => evaluate(p0, t0 + h, pd).arrivalTemperature,
+            1e-2,
+          ],
+          [
+            base.dArrivalTemperaturedDownstreamPressure,
+            (h) => evaluate(p0, t0, pd + h).arrivalTemperature,
+            step,
+          ],
+        ];
+        for (const [analytic, at, h] of checks) {
+          const difference = (at(h) - at(-h)) / (2 * h);
+          // The integration's noise over a step of 1e-4 of the drop (1e-5 relative) and
+          // truncation of the same order, as for the perfect gas.
+          const scale = Math.max(Math.abs(difference), Math.abs(analytic), 1e-12);
+          expect(Math.abs(analytic - difference) / scale).toBeLessThan(1e-3);
+        }
+      });
+    }
+  }
+});
