@@ -209,3 +209,12 @@ export function temperatureFromEnthalpy(
     `temperatureFromEnthalpy: no temperature between ${TEMPERATURE_SEARCH_RANGE.low} K and ${TEMPERATURE_SEARCH_RANGE.high} K has the enthalpy ${enthalpy} J/kg at ${pressure} Pa`,
   );
 }
+
+/**
+ * Whether the gas is calorically perfect and ideal: constant cp and Z = 1 (no NASA data, no
+ * equation of state). The closed-form relations (isentropic, Fanno, isothermal, the components'
+ * standards in their perfect-gas form) hold exactly for such a gas only.
+ */
+export function isPerfectGas(gas: Gas): boolean {
+  return gas.heatCapacity === undefined && gas.equationOfState === undefined;
+}

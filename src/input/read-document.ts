@@ -21,7 +21,7 @@ import { firstJsonSyntaxError } from "./json-syntax-error.js";
 import { networkSchema } from "./network-schema.js";
 import { parseQuantity, type QuantityKind } from "./quantity.js";
 import { readComponentEdge, readPipeExtras } from "./read-components.js";
-import { gasModelSupportIssues, readGas } from "./read-gas.js";
+import { readGas } from "./read-gas.js";
 import { compileValidator } from "./validate-schema.js";
 
 export { INPUT_RANGES, type InputRange } from "./input-ranges.js";
@@ -289,8 +289,6 @@ function convertDocument(doc: NetworkDocument): ReadResult {
     readEdge(edge, index, settings.pipeModel, ambientTemperature, reader),
   );
   checkElevations(nodes, edges, reader);
-
-  if (gas !== undefined) gasModelSupportIssues(gas, edges, reader);
 
   if (reader.issues.length > 0 || gas === undefined) {
     return { ok: false, issues: sortIssues(reader.issues) };

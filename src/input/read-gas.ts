@@ -15,7 +15,7 @@ import {
   isGasPresetName,
 } from "../gas/gas.js";
 import type { Gas, PengRobinsonEquationOfState, ViscosityLaw } from "../gas/gas-types.js";
-import type { CheckedEdge, GasInput, PipeModelName } from "./document-types.js";
+import type { GasInput } from "./document-types.js";
 import { INPUT_RANGES, inRange, quantityInRange } from "./input-ranges.js";
 import type { ValueReader } from "./read-components.js";
 
@@ -171,51 +171,6 @@ export function readGas(input: GasInput | undefined, reader: ValueReader): Gas |
     viscosityLaw,
     ...(equationOfState === undefined ? {} : { equationOfState }),
   });
-}
-
-/**
- * Pipe models that use the gas's temperature-dependent cp and equation of state through
- * src/gas/thermo.ts: the heat-transfer model, which integrates along the pipe with every
- * property from there. Junction mixing, reservoir supply, injections and the results' balances
- * take enthalpy from there too (src/solve/network-system.ts, src/results/build-results.ts). The
- * adiabatic (Fanno) and isothermal pipe models and every component are closed forms for a
- * calorically perfect ideal gas.
- */
-const PROPERTY_MODEL_PIPE_MODELS: readonly PipeModelName[] = ["heat-transfer"];
-
-/**
- * Refuse a gas whose heat-capacity or equation-of-state model the edges cannot use, rather
- * than solve with constant cp and Z = 1 in silence. One issue per model field, naming the edges.
- */
-export function gasModelSupportIssues(
-  gas: Gas,
-  edges: readonly CheckedEdge[],
-  reader: ValueReader,
-): void {
-  const unsupported = edges.filter(
-    (edge) => !(edge.kind === "pipe" && PROPERTY_MODEL_PIPE_MODELS.includes(edge.model)),
-  );
-  if (unsupported.length === 0) return;
-  const shown = unsupported.slice(0, 5).map((edge) => edge.id);
-  const edgeList =
-    unsupported.length > shown.length
-      ? `${shown.join(", ")} and ${unsupported.length - shown.length} more`
-      : shown.join(", ");
-  const supported = `it is supported by pipes with the ${PROPERTY_MODEL_PIPE_MODELS.map((name) => `"${name}"`).join(", ")} model only (the adiabatic and isothermal pipe models and the components are closed forms for a constant cp and an ideal gas)`;
-  if (gas.heatCapacity !== undefined) {
-    reader.fail({
-      code: "unsupported",
-      path: "/gas/heatCapacity",
-      message: `"nasa7" cannot be used by edges ${edgeList}: ${supported}; use "constant"`,
-    });
-  }
-  if (gas.equationOfState !== undefined) {
-    reader.fail({
-      code: "unsupported",
-      path: "/gas/equationOfState",
-      message: `"peng-robinson" cannot be used by edges ${edgeList}: ${supported}; use "ideal-gas"`,
-    });
-  }
 }
 
 /** The fields of a custom gas's critical constants. */

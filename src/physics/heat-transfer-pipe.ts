@@ -25,7 +25,9 @@
  * state.
  *
  * Entrance: isentropic acceleration from the upstream plenum, as in the adiabatic model, with the
- * isentropic exponent rho a^2 / p and Z R of the plenum state (exact for a perfect gas).
+ * isentropic exponent rho a^2 / p and Z R of the plenum state (exact for a perfect gas); with
+ * cp(T) or a real gas its temperature then closes the first law, h + v^2/2 = h0
+ * (HeatTransferScratch.closeEntranceEnergy).
  * Friction: Darcy factor from Colebrook-White at Re = G D / mu(T0), T0 the upstream stagnation
  * temperature, constant along the pipe (as in the other models).
  *
@@ -40,9 +42,11 @@
  * @module
  */
 import type { Gas } from "../gas/gas-types.js";
+import type { PengRobinsonValues } from "../gas/peng-robinson.js";
 import {
   emptyThermoState,
   gasState,
+  isPerfectGas,
   type ThermoState,
   temperatureFromEnthalpy,
 } from "../gas/thermo.js";
@@ -66,6 +70,9 @@ const SONIC_MARGIN = 1e-4;
 
 /** Relative step of the central differences of the right-hand side. */
 const DIFFERENCE_STEP = 6e-6;
+
+/** Relative step of the central differences of a real gas's entrance in the plenum state. */
+const ENTRANCE_STEP = 1e-6;
 
 /** Relative step of the one-sided differences of the capacity (choked derivatives). */
 const CAPACITY_STEP = 1e-5;
@@ -239,6 +246,77 @@ export class HeatTransferScratch {
     return s.enthalpy + 0.5 * v2;
   }
   readonly enthalpySlope = new Float64Array(3);
+
+  /**
+   * With cp(T) or a real gas, make the entrance state close the first law exactly:
+   * h(p1, T1) + (G/rho1)^2/2 = h0 of the plenum, by Newton on T1 at the isentrope's p1 (the
+   * isentropic form with the plenum's exponent rho a^2/p is exact for a perfect gas only, and
+   * off by O(M^2 (1 - Z)) in enthalpy otherwise). The slopes of T1 follow from the same
+   * condition: dT1 = (dh0 - H_p dp1 - H_G dG) / H_T, H = h + v^2/2 at fixed G. The Mach number
+   * becomes v1 / a(p1, T1). The slopes of p1 with respect to p0 and T0 also follow the
+   * plenum's exponent and Z R, which change with (p0, T0) for such a gas: by central differences
+   * of the isentropic form (relative step 1e-6; no integration involved). A perfect gas is left
+   * as it is (its entrance and slopes are exact).
+   */
+  closeEntranceEnergy(
+    flux: number,
+    p0: number,
+    t0: number,
+    h0: number,
+    dh0dp0: number,
+    dh0dT0: number,
+  ): void {
+    const gas = this.gas as Gas;
+    if (isPerfectGas(gas)) return;
+    const entrance = this.entrance;
+    const p1s = entrance.pressureSlope;
+    const dp = ENTRANCE_STEP * p0;
+    const dt = ENTRANCE_STEP * t0;
+    p1s[1] =
+      (this.entrancePressureAt(flux, p0 + dp, t0) - this.entrancePressureAt(flux, p0 - dp, t0)) /
+      (2 * dp);
+    p1s[2] =
+      (this.entrancePressureAt(flux, p0, t0 + dt) - this.entrancePressureAt(flux, p0, t0 - dt)) /
+      (2 * dt);
+    const p1 = entrance.pressure;
+    let t1 = entrance.temperature;
+    const slope = this.enthalpySlope;
+    for (let iteration = 0; iteration < 20; iteration++) {
+      const residual = this.stagnationEnthalpy(p1, t1, flux) - h0;
+      const step = residual / (slope[1] as number);
+      t1 -= step;
+      if (Math.abs(step) <= 1e-13 * t1) break;
+    }
+    this.stagnationEnthalpy(p1, t1, flux);
+    const hp = slope[0] as number;
+    const ht = slope[1] as number;
+    const hg = slope[2] as number;
+    const t1s = entrance.temperatureSlope;
+    entrance.temperature = t1;
+    t1s[0] = -(hp * (p1s[0] as number) + hg) / ht;
+    t1s[1] = (dh0dp0 - hp * (p1s[1] as number)) / ht;
+    t1s[2] = (dh0dT0 - hp * (p1s[2] as number)) / ht;
+    const s = this.state;
+    entrance.mach = flux / s.density / s.soundSpeed;
+  }
+
+  /** Inlet pressure of the isentropic form from a plenum (p0, T0) with its own exponent and Z R. */
+  private entrancePressureAt(flux: number, p0: number, t0: number): number {
+    const plenum = gasState(this.gas as Gas, p0, t0, this.probeState);
+    const kappa = (plenum.density * plenum.soundSpeed * plenum.soundSpeed) / p0;
+    const gasConstant = p0 / (plenum.density * t0);
+    return isentropicEntrance(flux, p0, t0, kappa, gasConstant, this.probeEntrance)
+      ? this.probeEntrance.pressure
+      : Number.NaN;
+  }
+  private readonly probeState: ThermoState = emptyThermoState();
+  private readonly probeEntrance: Entrance = {
+    pressure: 0,
+    temperature: 0,
+    mach: 0,
+    pressureSlope: new Float64Array(3),
+    temperatureSlope: new Float64Array(3),
+  };
 
   private slopes(y: Float64Array, out: Float64Array): boolean {
     const p = this.inletPressure + (y[0] as number);
@@ -565,6 +643,7 @@ export function evaluateHeatTransferPipe(
   // Integrate at flux G from the plenum; false if the entrance cannot pass it.
   const runAt = (flux: number, withSensitivities: boolean): PipeRun | undefined => {
     if (!isentropicEntrance(flux, p0, t0, kappa, gasConstant, entrance)) return undefined;
+    scratch.closeEntranceEnergy(flux, p0, t0, h0, dh0dp0, dh0dT0);
     context.friction(context.pipe, flux * reynoldsPerFlux, friction);
     scratch.frictionPerLength = friction.value / length;
     scratch.inletPressure = entrance.pressure;
@@ -764,9 +843,12 @@ function exitSlope(
 
 /**
  * Arrival stagnation temperature at the downstream plenum pressure from the stagnation enthalpy
- * h0_out, with its derivatives from those of h0_out (d/dp0, d/dT0, d/dpd along the solution).
+ * h0_out, with its derivatives from those of h0_out (d/dp0, d/dT0, d/dpd along the solution):
+ * h(T_arrive, pd) = h0_out, so dT_arrive = (dh0_out - (dh/dp)_T dpd) / cp at (T_arrive, pd).
+ * Also used by the real-gas isothermal pipe (src/physics/real-gas-pipe.ts). `state` and
+ * `eosScratch` are working records (allocation-free when given).
  */
-function setArrival(
+export function setArrival(
   gas: Gas,
   h0Out: number,
   pd: number,
@@ -775,9 +857,10 @@ function setArrival(
   dP0: number,
   dT0: number,
   dPd: number,
+  eosScratch?: PengRobinsonValues,
 ): void {
-  const arrival = temperatureFromEnthalpy(gas, h0Out, pd);
-  const s = gasState(gas, pd, arrival, state);
+  const arrival = temperatureFromEnthalpy(gas, h0Out, pd, state, eosScratch);
+  const s = gasState(gas, pd, arrival, state, eosScratch);
   const perEnthalpy = 1 / s.specificHeatCp;
   out.arrivalTemperature = arrival;
   out.dArrivalTemperaturedUpstreamPressure = perEnthalpy * dP0;
@@ -963,11 +1046,14 @@ function capacityAt(
   const kappa = (plenum.density * plenum.soundSpeed * plenum.soundSpeed) / p0;
   const gasConstant = p0 / (plenum.density * t0);
   const h0 = plenum.enthalpy;
+  const dh0dp0 = plenum.enthalpyPressureSlope;
+  const dh0dT0 = plenum.specificHeatCp;
   const reynoldsPerFlux = pipe.diameter / context.viscosity(t0);
   const friction = scratch.probeFriction;
   const entrance = scratch.entrance;
   const runAt = (flux: number, withSensitivities: boolean): PipeRun | undefined => {
     if (!isentropicEntrance(flux, p0, t0, kappa, gasConstant, entrance)) return undefined;
+    scratch.closeEntranceEnergy(flux, p0, t0, h0, dh0dp0, dh0dT0);
     context.friction(context.pipe, flux * reynoldsPerFlux, friction);
     scratch.frictionPerLength = friction.value / length;
     scratch.inletPressure = entrance.pressure;
@@ -1074,9 +1160,12 @@ export function heatTransferOutlet(
   const kappa = (plenum.density * plenum.soundSpeed * plenum.soundSpeed) / p0;
   const gasConstant = p0 / (plenum.density * t0);
   const h0 = plenum.enthalpy;
+  const dh0dp0 = plenum.enthalpyPressureSlope;
+  const dh0dT0 = plenum.specificHeatCp;
   const flux = massFlow / area;
   const entrance = scratch.entrance;
   if (!isentropicEntrance(flux, p0, t0, kappa, gasConstant, entrance)) return false;
+  scratch.closeEntranceEnergy(flux, p0, t0, h0, dh0dp0, dh0dT0);
   const reynolds = (flux * pipe.diameter) / viscosity(t0);
   frictionLaw(pipe, reynolds, out.friction);
   scratch.frictionPerLength = out.friction.value / pipe.length;

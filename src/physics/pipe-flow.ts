@@ -22,10 +22,15 @@
  */
 
 import type { Gas } from "../gas/gas-types.js";
-import { emptyThermoState, type ThermoState } from "../gas/thermo.js";
+import { emptyThermoState, isPerfectGas, type ThermoState } from "../gas/thermo.js";
 import { fannoParameter, machFromFannoParameter } from "./fanno.js";
 import { darcyFrictionWithSlope, type FrictionWithSlope } from "./friction.js";
 import { evaluateHeatTransferPipe, type HeatTransferScratch } from "./heat-transfer-pipe.js";
+import {
+  applyCaloricIsothermal,
+  evaluateRealGasIsothermal,
+  type RealGasScratch,
+} from "./real-gas-pipe.js";
 
 /** Geometry and friction of one pipe, in SI. */
 export interface PipeGeometry {
@@ -104,6 +109,8 @@ export class PipeFlowEvaluation {
   outletTemperature = 0;
   /** Heat-transfer model's work space (made on first use). */
   heatTransfer: HeatTransferScratch | undefined = undefined;
+  /** Work space of the relations with cp(T) or a real gas (real-gas-pipe.ts; first use). */
+  realGas: RealGasScratch | undefined = undefined;
   /** A thermodynamic state record for callers (the orientation of a rising pipe). */
   readonly thermo: ThermoState = emptyThermoState();
   /** Scratch of the friction relation (kept here so the hot path allocates nothing). */
@@ -216,7 +223,10 @@ export function evaluatePipeFlow(
   pressureDrop = upstreamPressure - downstreamPressure,
   forward = true,
 ): PipeFlowEvaluation {
-  if (pipe.model === "heat-transfer") {
+  const perfect = isPerfectGas(gas.gas);
+  // With cp(T) or a real gas an adiabatic pipe is the heat-transfer integration without heat
+  // exchange (Fanno's closed form is the perfect gas's): docs/model.md, real-gas-pipe.ts.
+  if (pipe.model === "heat-transfer" || (pipe.model === "adiabatic" && !perfect)) {
     const rise = pipe.rise ?? 0;
     evaluateHeatTransferPipe(
       pipe,
@@ -230,6 +240,18 @@ export function evaluatePipeFlow(
       out,
       needCapacity,
     );
+  } else if (pipe.model === "isothermal" && gas.gas.equationOfState !== undefined) {
+    evaluateRealGasIsothermal(
+      pipe,
+      gas,
+      upstreamPressure,
+      upstreamTemperature,
+      downstreamPressure,
+      out,
+      needCapacity,
+      pressureDrop,
+      frictionParameter,
+    );
   } else if (pipe.model === "isothermal") {
     evaluateIsothermal(
       pipe,
@@ -241,6 +263,15 @@ export function evaluatePipeFlow(
       needCapacity,
       pressureDrop,
     );
+    if (!perfect) {
+      applyCaloricIsothermal(
+        gas.gas,
+        gas.heatCapacityRatio,
+        upstreamTemperature,
+        downstreamPressure,
+        out,
+      );
+    }
   } else {
     evaluateAdiabatic(
       pipe,

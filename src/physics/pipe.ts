@@ -10,7 +10,7 @@
  */
 import { gasViscosity } from "../gas/gas.js";
 import type { Gas } from "../gas/gas-types.js";
-import { gasState, temperatureFromEnthalpy } from "../gas/thermo.js";
+import { gasState, isPerfectGas, temperatureFromEnthalpy } from "../gas/thermo.js";
 import { fannoParameter, fannoPressureRatio, machFromFannoParameter } from "./fanno.js";
 import { darcyFrictionFactor } from "./friction.js";
 import { heatTransferOutlet } from "./heat-transfer-pipe.js";
@@ -28,6 +28,7 @@ import {
   type PipeGeometry,
   type PipeModel,
 } from "./pipe-flow.js";
+import { realGasIsothermalOutlet } from "./real-gas-pipe.js";
 
 /** A pipe in SI units. */
 export interface Pipe {
@@ -178,7 +179,10 @@ function checkPipe(pipe: Pipe, upstream: PlenumState): void {
  * rho and the speed of sound a from src/gas/thermo.ts at (p, T), v = M a, the stagnation
  * pressure p0 = p (1 + (kappa-1)/2 M^2)^(kappa/(kappa-1)) with the local isentropic exponent
  * kappa = rho a^2 / p (exact for a perfect gas, within O(M^4) otherwise; p + rho v^2/2 if
- * kappa <= 1), and T0 from h(T0, p0) = h(T, p) + v^2/2.
+ * kappa <= 1), and T0 from h(T0, p0) = h(T, p) + v^2/2. The same for every model and component
+ * with such a gas: the static temperature is then the integrated one (heat-transfer, and
+ * adiabatic, which is integrated with such a gas), T0 for the isothermal model, and for a
+ * component the one its evaluation gives (src/physics/components/real-gas-component.ts).
  */
 export function endStatesOf(
   gas: PipeGas,
@@ -188,8 +192,9 @@ export function endStatesOf(
 ): { inlet: PipeEndState; outlet: PipeEndState } {
   const gamma = gas.heatCapacityRatio;
   const r = gas.specificGasConstant;
+  const perfect = isPerfectGas(gas.gas);
   const state = (pressure: number, mach: number, integrated: number): PipeEndState => {
-    if (model === "adiabatic") {
+    if (model === "adiabatic" && perfect) {
       const temperature = upstreamTemperature * isentropicTemperatureRatio(mach, gamma);
       return {
         pressure,
@@ -201,12 +206,9 @@ export function endStatesOf(
         mach,
       };
     }
-    const temperature = model === "heat-transfer" ? integrated : upstreamTemperature;
+    const temperature = model === "isothermal" ? upstreamTemperature : integrated;
     const thermoGas = gas.gas;
-    if (
-      model === "heat-transfer" &&
-      (thermoGas.heatCapacity !== undefined || thermoGas.equationOfState !== undefined)
-    ) {
+    if (!perfect) {
       const local = gasState(thermoGas, pressure, temperature);
       const velocity = mach * local.soundSpeed;
       const kinetic = 0.5 * velocity * velocity;
@@ -318,6 +320,8 @@ export function heatFlowOf(
 ): number {
   if (geometry.model === "heat-transfer") return evaluation.heatFlow;
   if (geometry.model === "adiabatic") return 0;
+  // Isothermal with cp(T) or a real gas: the relation's own m (h2 + v2^2/2 - h1).
+  if (!isPerfectGas(gas)) return evaluation.heatFlow;
   return (
     evaluation.massFlow * gas.specificHeatCp * (outletStagnationTemperature - upstreamTemperature)
   );
@@ -380,8 +384,20 @@ export function pipeOutlet(
   });
   if (massFlow > capacity * (1 + 1e-12)) return overCapacity();
 
-  const evaluation = new PipeFlowEvaluation();
+  let evaluation = new PipeFlowEvaluation();
   if (!outletForMassFlow(geometry, gas, p0, t0, massFlow, evaluation)) return overCapacity();
+  if (!isPerfectGas(gas) && massFlow > 0) {
+    // cp(T) or a real gas: the forward relation at the exit pressure found fills the arrival,
+    // heat and end states of the same flow consistently.
+    evaluation = evaluatePipeFlow(
+      geometry,
+      kernelGas,
+      p0,
+      t0,
+      evaluation.outletPressure,
+      new PipeFlowEvaluation(),
+    );
+  }
   evaluation.capacity = capacity;
   const { reynolds, frictionFactor } = evaluation;
   const ends = endStatesOf(kernelGas, geometry.model, t0, evaluation);
@@ -416,7 +432,11 @@ export function outletForMassFlow(
   evaluation: PipeFlowEvaluation,
   forward = true,
 ): boolean {
-  if (geometry.model === "heat-transfer" && massFlow > 0) {
+  const perfect = isPerfectGas(gas);
+  if (
+    (geometry.model === "heat-transfer" || (geometry.model === "adiabatic" && !perfect)) &&
+    massFlow > 0
+  ) {
     const rise = geometry.rise ?? 0;
     return heatTransferOutlet(
       geometry,
@@ -427,6 +447,18 @@ export function outletForMassFlow(
       t0,
       massFlow,
       forward ? rise : -rise,
+      evaluation,
+    );
+  }
+  if (geometry.model === "isothermal" && gas.equationOfState !== undefined) {
+    return realGasIsothermalOutlet(
+      geometry,
+      gas,
+      (temperature) => gasViscosity(gas, temperature),
+      frictionParameterOf,
+      p0,
+      t0,
+      massFlow,
       evaluation,
     );
   }

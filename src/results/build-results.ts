@@ -92,14 +92,22 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     enthalpyArriving[downstream] =
       (enthalpyArriving[downstream] as number) +
       flow * cp * enthalpyTemperatureAt(pDown, evaluation.arrivalTemperature);
-    // Heat into the gas: the heat-transfer model's own integral; otherwise what the arrival
-    // temperature implies (isothermal pipes; 0 for adiabatic pipes and components). Lift: m g dz.
+    // Heat into the gas: the heat-transfer model's own integral; for an isothermal pipe what the
+    // arrival implies, m (h0 arriving - h0 upstream) (with cp(T) and the departure enthalpy);
+    // none for adiabatic pipes and components, which pass their stagnation enthalpy (a perfect
+    // gas's arrival is then T0 itself). Lift: m g dz.
     const rise = element.kind === "pipe" ? (element.rise ?? 0) * (forward ? 1 : -1) : 0;
     const lift = flow * STANDARD_GRAVITY * rise;
     const heat =
       element.kind === "pipe" && element.model === "heat-transfer"
         ? evaluation.heatFlow
-        : flow * cp * (evaluation.arrivalTemperature - tUp) + lift;
+        : element.kind === "pipe" && element.model === "isothermal"
+          ? flow *
+              cp *
+              (enthalpyTemperatureAt(pDown, evaluation.arrivalTemperature) -
+                enthalpyTemperatureAt(pUp, tUp)) +
+            lift
+          : lift;
     heatIn += heat;
     potentialEnergyGain += lift;
 
@@ -138,7 +146,15 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
       heatFlow: heat === 0 ? 0 : heat,
     };
     if (element.kind !== "pipe") {
-      result.component = componentDetails(element, system.gas, pUp, pDown, forward, evaluation);
+      result.component = componentDetails(
+        element,
+        system.gas,
+        pUp,
+        pDown,
+        forward,
+        evaluation,
+        tUp,
+      );
     } else if (edge.kind === "pipe" && edge.catalog !== undefined) {
       result.catalog = { ...edge.catalog };
     }

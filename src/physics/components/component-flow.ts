@@ -2,11 +2,13 @@
  * One entry for every component kind: the flow for given end states (the solver's evaluation),
  * the p-squared resistance of the first guess, and the kind-specific figures of the results.
  */
+import { isPerfectGas } from "../../gas/thermo.js";
 import { criticalPressureRatio } from "../isentropic.js";
 import type { PipeFlowEvaluation, PipeGas } from "../pipe-flow.js";
 import { type ComponentElement, LEAKAGE_FRACTION } from "./component-elements.js";
 import { evaluateNozzleFlow, nozzleCriticalPressureRatio, nozzleExpansibility } from "./nozzle.js";
 import { evaluateOrificeFlow, orificeExpansibility } from "./orifice.js";
+import { evaluateRealGasComponent, isentropicExponent } from "./real-gas-component.js";
 import {
   evaluateCheckValveFlow,
   evaluateRegulatorFlow,
@@ -25,7 +27,8 @@ import {
 
 /**
  * Flow through a component from its upstream node (p0, T0) to its downstream node at pd <= p0,
- * into `out` (the same fields as a pipe's evaluation).
+ * into `out` (the same fields as a pipe's evaluation). With cp(T) or a real gas, the standards'
+ * real-gas forms (src/physics/components/real-gas-component.ts).
  *
  * @param forward - true when the upstream node is the edge's declared `from` node
  * @param needEndStates - also the Mach numbers in the connecting pipes (results need them)
@@ -40,6 +43,44 @@ export function evaluateComponentFlow(
   out: PipeFlowEvaluation,
   needEndStates: boolean,
 ): PipeFlowEvaluation {
+  if (isPerfectGas(gas.gas)) {
+    evaluatePerfectGasComponentFlow(
+      element,
+      gas,
+      upstreamPressure,
+      upstreamTemperature,
+      downstreamPressure,
+      forward,
+      out,
+      needEndStates,
+    );
+  } else {
+    evaluateRealGasComponent(
+      element,
+      gas,
+      upstreamPressure,
+      upstreamTemperature,
+      downstreamPressure,
+      forward,
+      out,
+      needEndStates,
+      evaluatePerfectGasComponentFlow,
+    );
+  }
+  return out;
+}
+
+/** The perfect-gas forms of every kind, with R and gamma from `gas`. */
+function evaluatePerfectGasComponentFlow(
+  element: ComponentElement,
+  gas: PipeGas,
+  upstreamPressure: number,
+  upstreamTemperature: number,
+  downstreamPressure: number,
+  forward: boolean,
+  out: PipeFlowEvaluation,
+  needEndStates: boolean,
+): void {
   const p0 = upstreamPressure;
   const t0 = upstreamTemperature;
   const pd = downstreamPressure;
@@ -60,7 +101,6 @@ export function evaluateComponentFlow(
       evaluateCheckValveFlow(element, gas, p0, t0, pd, forward, out, needEndStates);
       break;
   }
-  return out;
 }
 
 /**
@@ -174,7 +214,8 @@ export type ComponentDetails =
 
 /**
  * The figures a component reports, at the node states of an evaluation already made (`evaluation`
- * holds its mass flow).
+ * holds its mass flow). `upstreamTemperature` [K] is needed with cp(T) or a real gas (the
+ * isentropic exponent at the upstream state).
  */
 export function componentDetails(
   element: ComponentElement,
@@ -183,8 +224,14 @@ export function componentDetails(
   downstreamPressure: number,
   forward: boolean,
   evaluation: PipeFlowEvaluation,
+  upstreamTemperature = Number.NaN,
 ): ComponentDetails {
-  const gamma = gas.heatCapacityRatio;
+  // The isentropic exponent at the upstream state (gamma of a perfect gas), as the flow used;
+  // with cp(T) or a real gas it needs the upstream temperature.
+  const gamma =
+    isPerfectGas(gas.gas) || Number.isNaN(upstreamTemperature)
+      ? gas.heatCapacityRatio
+      : isentropicExponent(gas, upstreamPressure, upstreamTemperature);
   const p1 = upstreamPressure;
   const x = Math.max((p1 - downstreamPressure) / p1, 0);
   switch (element.kind) {
