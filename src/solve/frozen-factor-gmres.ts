@@ -196,7 +196,8 @@ export function solveWithFrozenFactors(
   const y = space.coefficients;
   for (let i = done - 1; i >= 0; i--) {
     let sum = g[i] as number;
-    for (let k = i + 1; k < done; k++) sum -= (hessenberg[k * lead + i] as number) * (y[k] as number);
+    for (let k = i + 1; k < done; k++)
+      sum -= (hessenberg[k * lead + i] as number) * (y[k] as number);
     y[i] = sum / (hessenberg[i * lead + i] as number);
   }
   z.fill(0);
