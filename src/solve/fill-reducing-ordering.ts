@@ -302,7 +302,7 @@ export function nestedDissectionOrdering(pattern: SymmetricPattern): Int32Array 
   /** Minimum degree on the rows of one part (their pattern among themselves). */
   function minimumDegreeOfPart(rows: readonly number[], id: number): number[] {
     const local = new Map<number, number>();
-    rows.forEach((row, k) => local.set(row, k));
+    for (let k = 0; k < rows.length; k++) local.set(rows[k] as number, k);
     const sub: number[][] = rows.map((row) =>
       (neighbours[row] ?? [])
         .filter((other) => part[other] === id)

@@ -97,6 +97,8 @@ export interface BlockLuStructure {
    * made on its first use; not state (its contents mean nothing between solves).
    */
   gmresWorkspace?: GmresWorkspace;
+  /** Working memory of the numeric factorization, made on its first use; not state either. */
+  factorWorkspace?: { front: Float64Array; stack: Float64Array; updateAt: Float64Array };
 }
 
 /** A numeric factorization, ready for solves. */
@@ -516,10 +518,15 @@ function postorder(n: number, parent: Int32Array, order: Int32Array): Int32Array
  * Factor a block matrix with the given structure. `values` holds 4 numbers per block of the
  * original pattern, row-major within the block ([a11, a12, a21, a22]), at the indices of
  * `structure.blockIndex`. The array is read, not changed.
+ *
+ * `replaced`, an earlier factorization of the same structure that the caller no longer needs,
+ * lends its storage (the panels are the bulk of a large network's memory: 90 MB on the
+ * 100,000-edge grid); it must not be used afterwards.
  */
 export function factorBlockMatrix(
   structure: BlockLuStructure,
   values: Float64Array,
+  replaced?: BlockLuFactorization,
 ): BlockLuFactorization {
   const n = structure.size;
   const {
@@ -536,14 +543,21 @@ export function factorBlockMatrix(
     assemblySource,
     assemblyTarget,
   } = structure;
-  const lower = new Float64Array(panelStart[supernodeCount] as number);
-  const upper = new Float64Array(panelStart[supernodeCount] as number);
-  const pivotInverse = new Float64Array(4 * n);
+  const reuse = replaced !== undefined && replaced.structure === structure;
+  const lower = reuse ? replaced.lower : new Float64Array(panelStart[supernodeCount] as number);
+  const upper = reuse ? replaced.upper : new Float64Array(panelStart[supernodeCount] as number);
+  const pivotInverse = reuse ? replaced.pivotInverse : new Float64Array(4 * n);
   const perturbedPivots: number[] = [];
-  const front = new Float64Array(structure.frontCapacity);
-  const stack = new Float64Array(structure.stackCapacity);
-  // Start of each pending update matrix on the stack (children are on top, last child last).
-  const updateAt = new Float64Array(supernodeCount);
+  if (structure.factorWorkspace === undefined) {
+    structure.factorWorkspace = {
+      front: new Float64Array(structure.frontCapacity),
+      stack: new Float64Array(structure.stackCapacity),
+      updateAt: new Float64Array(supernodeCount),
+    };
+  }
+  // The front, the stack of children's Schur complements, and the start of each pending one on
+  // it (children are on top, the last child last).
+  const { front, stack, updateAt } = structure.factorWorkspace;
   let top = 0;
   for (let s = 0; s < supernodeCount; s++) {
     const firstStep = supernodeStart[s] as number;
