@@ -77,7 +77,7 @@ export interface BlockLuStructure {
   /** The block rows of each supernode's front: its own columns, then the later rows, in order. */
   frontNodes: Int32Array;
   /** Offsets (in numbers) of each supernode's panels in the factor arrays. */
-  panelStart: Float64Array;
+  panelStart: Int32Array;
   /** Offsets into `childStart`-ordered children per supernode (CSR of the supernode tree). */
   childStart: Int32Array;
   /** Children of each supernode, in postorder. */
@@ -98,7 +98,7 @@ export interface BlockLuStructure {
    */
   gmresWorkspace?: GmresWorkspace;
   /** Working memory of the numeric factorization, made on its first use; not state either. */
-  factorWorkspace?: { front: Float64Array; stack: Float64Array; updateAt: Float64Array };
+  factorWorkspace?: { front: Float64Array; stack: Float64Array; updateAt: Int32Array };
 }
 
 /** A numeric factorization, ready for solves. */
@@ -142,11 +142,12 @@ export function analyzeBlockPattern(pattern: BlockPattern): BlockLuStructure {
     return -1;
   };
 
-  // Minimum degree, and on larger patterns nested dissection too: the one whose factorization
-  // costs fewer block updates (symbolic counts, a small fraction of one numeric factorization).
+  // Minimum degree, and on larger meshed patterns nested dissection too: the one whose
+  // factorization costs fewer block updates (symbolic counts, a small fraction of one numeric
+  // factorization).
   let ordering = minimumDegreeOrdering(pattern);
   let first = columnStructure(n, adjacencyStart, adjacency, ordering);
-  if (n >= DISSECTION_MIN_SIZE) {
+  if (n >= DISSECTION_MIN_SIZE && meshedEnough(first.structureStart)) {
     const dissection = nestedDissectionOrdering(pattern);
     const other = columnStructure(n, adjacencyStart, adjacency, dissection);
     if (updatesOf(other.structureStart) < updatesOf(first.structureStart)) {
@@ -173,16 +174,28 @@ export function analyzeBlockPattern(pattern: BlockPattern): BlockLuStructure {
     factorUpdates += count * count;
   }
 
-  // Fundamental supernodes: column j + 1 joins j's when it is j's parent and j's structure is
-  // j + 1 and j + 1's structure.
+  // Supernodes: column j joins the run before it when it is the parent of the run's last
+  // column and the run's columns, given j's front ({later columns of the run} and j's
+  // structure), would hold few explicit zeros (relaxed supernodes: C. Ashcraft and R. Grimes,
+  // "The influence of relaxed supernode partitions on the multifrontal method", ACM TOMS 15
+  // (1989) 291-309). Identical structures (no zeros) always join. The zeros stay exact zeros:
+  // every product that reaches them has a factor that is structurally zero.
   const starts: number[] = [];
+  let runCounts = 0; // sum of the structure counts of the run's columns
   for (let j = 0; j < n; j++) {
     const count = (structureStart[j + 1] as number) - (structureStart[j] as number);
-    const joinsPrevious =
-      j > 0 &&
-      parent[j - 1] === j &&
-      (structureStart[j] as number) - (structureStart[j - 1] as number) === count + 1;
-    if (!joinsPrevious) starts.push(j);
+    const width = j - (starts[starts.length - 1] ?? 0) + 1; // the run's width if j joins
+    let joins = j > 0 && parent[j - 1] === j;
+    if (joins) {
+      const entries = (width * (width - 1)) / 2 + width * count;
+      const zeros = entries - (runCounts + count);
+      joins = zeros <= RELAXED_ZERO_SHARE * entries;
+    }
+    if (joins) runCounts += count;
+    else {
+      starts.push(j);
+      runCounts = count;
+    }
   }
   const supernodeCount = starts.length;
   const supernodeStart = new Int32Array(supernodeCount + 1);
@@ -204,7 +217,7 @@ export function analyzeBlockPattern(pattern: BlockPattern): BlockLuStructure {
     frontStart[s + 1] = (frontStart[s] as number) + width + rows;
   }
   const frontSteps = new Int32Array(frontStart[supernodeCount] as number);
-  const panelStart = new Float64Array(supernodeCount + 1);
+  const panelStart = new Int32Array(supernodeCount + 1);
   const supernodeParent = new Int32Array(supernodeCount).fill(-1);
   let frontCapacity = 0;
   for (let s = 0; s < supernodeCount; s++) {
@@ -347,10 +360,28 @@ export function analyzeBlockPattern(pattern: BlockPattern): BlockLuStructure {
 }
 
 /**
+ * Share of explicit zeros (blocks of L per column, counted in a supernode's front) that a
+ * relaxed supernode may hold: merging a chain of small fronts into one saves their assembly,
+ * extend-add and copies, at the price of some arithmetic on zeros.
+ */
+const RELAXED_ZERO_SHARE = 0.1;
+
+/**
  * Patterns of at least this many block rows are ordered both ways (below it minimum degree
  * alone: small networks factor as they always did, and nested dissection does not pay there).
  */
 const DISSECTION_MIN_SIZE = 1000;
+
+/**
+ * Whether minimum degree's factorization costs over 15 of its triangular solves (in block
+ * operations): a meshed core, where dissection may do better. Below that (trees, tree-heavy
+ * networks) it cannot gain much and its analysis is not worth running.
+ */
+function meshedEnough(structureStart: Int32Array): boolean {
+  const n = structureStart.length - 1;
+  const solveBlocks = n + 2 * (structureStart[n] as number);
+  return updatesOf(structureStart) > 15 * solveBlocks;
+}
 
 /** Block updates of a factorization with these column structures (sum of counts squared). */
 function updatesOf(structureStart: Int32Array): number {
@@ -552,7 +583,7 @@ export function factorBlockMatrix(
     structure.factorWorkspace = {
       front: new Float64Array(structure.frontCapacity),
       stack: new Float64Array(structure.stackCapacity),
-      updateAt: new Float64Array(supernodeCount),
+      updateAt: new Int32Array(supernodeCount),
     };
   }
   // The front, the stack of children's Schur complements, and the start of each pending one on
