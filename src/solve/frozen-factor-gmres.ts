@@ -3,9 +3,9 @@
  * preconditioner of GMRES, so that a Newton iteration whose Jacobian has changed little does not
  * pay for a new factorization.
  *
- * On a meshed network the numeric factorization costs far more than a residual evaluation (at
- * 100,000 edges about 35 million 2 x 2 block updates, against 1.4 million stored blocks touched by
- * a multiplication or a triangular solve), while successive Newton Jacobians differ by little:
+ * On a meshed network the numeric factorization costs far more than a residual evaluation (on
+ * the 40,000-edge grid 31 million 2 x 2 block updates, against 0.9 million blocks touched by a
+ * triangular solve), while successive Newton Jacobians differ by little:
  * a few preconditioned GMRES iterations then give the step to 1e-10 of its right-hand side at
  * the price of a few triangular solves. When they do not, the caller factors the new matrix.
  *
@@ -17,7 +17,7 @@
 import {
   type BlockLuFactorization,
   type BlockLuStructure,
-  solveFactored,
+  solveFactoredInPlace,
 } from "./sparse-block-lu.js";
 
 /**
@@ -34,14 +34,19 @@ export const FROZEN_FACTOR_MIN_JUNCTIONS = 1500;
  * so it always factors and solves exactly.
  */
 export function reuseOfFactorsPays(structure: BlockLuStructure): boolean {
-  const n = structure.size;
-  const factorWork = structure.updateStart[n] as number;
-  const solveWork = n + 2 * (structure.laterStart[n] as number);
-  return n >= FROZEN_FACTOR_MIN_JUNCTIONS && factorWork > FACTOR_COST_RATIO * solveWork;
+  return (
+    structure.size >= FROZEN_FACTOR_MIN_JUNCTIONS &&
+    structure.factorUpdates > FACTOR_COST_RATIO * structure.solveBlocks
+  );
 }
-const FACTOR_COST_RATIO = 20;
+/**
+ * Measured break-even (CPU time of cold solves, multifrontal factors): the 40,000-edge mixed
+ * network (ratio 21) solved 16 % faster factoring every matrix, the 40,000-edge grid (ratio 35)
+ * took the same time both ways.
+ */
+const FACTOR_COST_RATIO = 35;
 
-/** y = A x for a block matrix stored as {@link factorBlockMatrix} takes it (fill blocks zero). */
+/** y = A x for a block matrix in the layout of {@link BlockLuStructure.blockIndex}. */
 export function multiplyBlockMatrix(
   structure: BlockLuStructure,
   values: Float64Array,
@@ -49,37 +54,23 @@ export function multiplyBlockMatrix(
   y: Float64Array,
 ): void {
   const n = structure.size;
-  const { order, laterStart, laterNeighbours } = structure;
+  const { adjacencyStart, adjacency, adjacencyBlock } = structure;
   for (let i = 0; i < n; i++) {
     const d = 4 * i;
     const x1 = x[2 * i] as number;
     const x2 = x[2 * i + 1] as number;
-    y[2 * i] = (values[d] as number) * x1 + (values[d + 1] as number) * x2;
-    y[2 * i + 1] = (values[d + 2] as number) * x1 + (values[d + 3] as number) * x2;
-  }
-  for (let step = 0; step < n; step++) {
-    const pivot = order[step] as number;
-    const p1 = x[2 * pivot] as number;
-    const p2 = x[2 * pivot + 1] as number;
-    let r1 = 0;
-    let r2 = 0;
-    for (let k = laterStart[step] as number; k < (laterStart[step + 1] as number); k++) {
-      const s = laterNeighbours[k] as number;
-      const lower = 4 * (n + 2 * k); // block (s, pivot)
-      const upper = lower + 4; // block (pivot, s)
-      y[2 * s] =
-        (y[2 * s] as number) + (values[lower] as number) * p1 + (values[lower + 1] as number) * p2;
-      y[2 * s + 1] =
-        (y[2 * s + 1] as number) +
-        (values[lower + 2] as number) * p1 +
-        (values[lower + 3] as number) * p2;
-      const s1 = x[2 * s] as number;
-      const s2 = x[2 * s + 1] as number;
-      r1 += (values[upper] as number) * s1 + (values[upper + 1] as number) * s2;
-      r2 += (values[upper + 2] as number) * s1 + (values[upper + 3] as number) * s2;
+    let r1 = (values[d] as number) * x1 + (values[d + 1] as number) * x2;
+    let r2 = (values[d + 2] as number) * x1 + (values[d + 3] as number) * x2;
+    for (let e = adjacencyStart[i] as number; e < (adjacencyStart[i + 1] as number); e++) {
+      const j = adjacency[e] as number;
+      const b = 4 * (adjacencyBlock[e] as number);
+      const xj1 = x[2 * j] as number;
+      const xj2 = x[2 * j + 1] as number;
+      r1 += (values[b] as number) * xj1 + (values[b + 1] as number) * xj2;
+      r2 += (values[b + 2] as number) * xj1 + (values[b + 3] as number) * xj2;
     }
-    y[2 * pivot] = (y[2 * pivot] as number) + r1;
-    y[2 * pivot + 1] = (y[2 * pivot + 1] as number) + r2;
+    y[2 * i] = r1;
+    y[2 * i + 1] = r2;
   }
 }
 
@@ -92,11 +83,49 @@ export interface FrozenSolveResult {
 }
 
 /**
+ * Working memory of GMRES for one structure: the Krylov basis and the small least-squares
+ * problem. Made on the first frozen solve of a structure and kept on it (its contents mean
+ * nothing between calls), so the Newton steps of a large network allocate only their result.
+ */
+export interface GmresWorkspace {
+  /** Krylov basis vectors (grown to the iteration limit as needed). */
+  basis: Float64Array[];
+  /** Scratch vectors: the product A z and the preconditioned vector z. */
+  product: Float64Array;
+  preconditioned: Float64Array;
+  hessenberg: Float64Array;
+  cosines: Float64Array;
+  sines: Float64Array;
+  g: Float64Array;
+  coefficients: Float64Array;
+  /** Iterations the small arrays have room for. */
+  capacity: number;
+}
+
+function workspaceFor(structure: BlockLuStructure, length: number, m: number): GmresWorkspace {
+  const kept = structure.gmresWorkspace;
+  if (kept !== undefined && kept.capacity >= m && kept.product.length === length) return kept;
+  const workspace: GmresWorkspace = {
+    basis: kept?.product.length === length ? kept.basis : [],
+    product: new Float64Array(length),
+    preconditioned: new Float64Array(length),
+    hessenberg: new Float64Array((m + 1) * m),
+    cosines: new Float64Array(m),
+    sines: new Float64Array(m),
+    g: new Float64Array(m + 1),
+    coefficients: new Float64Array(m),
+    capacity: m,
+  };
+  structure.gmresWorkspace = workspace;
+  return workspace;
+}
+
+/**
  * Solve A x = b by GMRES, right-preconditioned with the factors of an earlier matrix of A's
  * structure. Returns x once |b - A x| <= tolerance |b| (2-norm, checked on the true residual
  * of the final x, not only on GMRES's running estimate), or no x after `maxIterations` (no
- * restart: the caller then factors A itself). Allocates its Krylov basis per call: it runs once
- * per Newton step of a large network, where that is small against one factorization.
+ * restart: the caller then factors A itself). Works in the structure's {@link GmresWorkspace};
+ * allocates only the returned x.
  */
 export function solveWithFrozenFactors(
   values: Float64Array,
@@ -109,77 +138,81 @@ export function solveWithFrozenFactors(
   const length = rhs.length;
   const rhsNorm = norm(rhs);
   if (rhsNorm === 0) return { x: new Float64Array(length), iterations: 0 };
+  const m = maxIterations;
+  const space = workspaceFor(structure, length, m);
+  const { basis, product: work, preconditioned: z, hessenberg, cosines, sines, g } = space;
+  const lead = space.capacity + 1; // rows of the column-major Hessenberg matrix
+  const vector = (i: number): Float64Array => {
+    while (basis.length <= i) basis.push(new Float64Array(length));
+    return basis[i] as Float64Array;
+  };
   // Start from the preconditioned right-hand side: x0 = M^-1 b, r0 = b - A x0.
-  const x0 = solveFactored(factors, rhs);
-  const work = new Float64Array(length);
+  const x0 = Float64Array.from(rhs);
+  solveFactoredInPlace(factors, x0);
   multiplyBlockMatrix(structure, values, x0, work);
-  const r0 = new Float64Array(length);
+  const r0 = vector(0);
   for (let i = 0; i < length; i++) r0[i] = (rhs[i] as number) - (work[i] as number);
   let beta = norm(r0);
   if (!Number.isFinite(beta)) return { x: undefined, iterations: 0 };
   if (beta <= tolerance * rhsNorm) return { x: x0, iterations: 0 };
-
-  const m = maxIterations;
-  const basis: Float64Array[] = [scaled(r0, 1 / beta)];
-  const hessenberg = new Float64Array((m + 1) * m); // column-major, (m + 1) rows
-  const cosines = new Float64Array(m);
-  const sines = new Float64Array(m);
-  const g = new Float64Array(m + 1);
+  for (let i = 0; i < length; i++) r0[i] = (r0[i] as number) / beta;
+  g.fill(0);
   g[0] = beta;
   let done = 0;
   for (let j = 0; j < m; j++) {
-    const z = solveFactored(factors, basis[j] as Float64Array);
-    const w = new Float64Array(length);
+    z.set(basis[j] as Float64Array);
+    solveFactoredInPlace(factors, z);
+    const w = vector(j + 1);
     multiplyBlockMatrix(structure, values, z, w);
     // Modified Gram-Schmidt.
     for (let i = 0; i <= j; i++) {
       const v = basis[i] as Float64Array;
       let h = 0;
       for (let k = 0; k < length; k++) h += (w[k] as number) * (v[k] as number);
-      hessenberg[j * (m + 1) + i] = h;
+      hessenberg[j * lead + i] = h;
       for (let k = 0; k < length; k++) w[k] = (w[k] as number) - h * (v[k] as number);
     }
     const wNorm = norm(w);
-    hessenberg[j * (m + 1) + j + 1] = wNorm;
+    hessenberg[j * lead + j + 1] = wNorm;
     // Apply the earlier rotations to the new column, then one that zeroes its subdiagonal.
     for (let i = 0; i < j; i++) {
-      const a = hessenberg[j * (m + 1) + i] as number;
-      const b = hessenberg[j * (m + 1) + i + 1] as number;
-      hessenberg[j * (m + 1) + i] = (cosines[i] as number) * a + (sines[i] as number) * b;
-      hessenberg[j * (m + 1) + i + 1] = -(sines[i] as number) * a + (cosines[i] as number) * b;
+      const a = hessenberg[j * lead + i] as number;
+      const b = hessenberg[j * lead + i + 1] as number;
+      hessenberg[j * lead + i] = (cosines[i] as number) * a + (sines[i] as number) * b;
+      hessenberg[j * lead + i + 1] = -(sines[i] as number) * a + (cosines[i] as number) * b;
     }
-    const a = hessenberg[j * (m + 1) + j] as number;
+    const a = hessenberg[j * lead + j] as number;
     const radius = Math.hypot(a, wNorm);
     if (!(radius > 0)) return { x: undefined, iterations: j + 1 };
     cosines[j] = a / radius;
     sines[j] = wNorm / radius;
-    hessenberg[j * (m + 1) + j] = radius;
-    hessenberg[j * (m + 1) + j + 1] = 0;
+    hessenberg[j * lead + j] = radius;
+    hessenberg[j * lead + j + 1] = 0;
     g[j + 1] = -(sines[j] as number) * (g[j] as number);
     g[j] = (cosines[j] as number) * (g[j] as number);
     done = j + 1;
     beta = Math.abs(g[j + 1] as number);
     if (!Number.isFinite(beta)) return { x: undefined, iterations: done };
     if (beta <= tolerance * rhsNorm || wNorm === 0) break;
-    basis.push(scaled(w, 1 / wNorm));
+    for (let k = 0; k < length; k++) w[k] = (w[k] as number) / wNorm;
   }
   if (beta > tolerance * rhsNorm) return { x: undefined, iterations: done };
   // y from the triangular system, then x = x0 + M^-1 (V y).
-  const y = new Float64Array(done);
+  const y = space.coefficients;
   for (let i = done - 1; i >= 0; i--) {
     let sum = g[i] as number;
     for (let k = i + 1; k < done; k++)
-      sum -= (hessenberg[k * (m + 1) + i] as number) * (y[k] as number);
-    y[i] = sum / (hessenberg[i * (m + 1) + i] as number);
+      sum -= (hessenberg[k * lead + i] as number) * (y[k] as number);
+    y[i] = sum / (hessenberg[i * lead + i] as number);
   }
-  work.fill(0);
+  z.fill(0);
   for (let i = 0; i < done; i++) {
     const v = basis[i] as Float64Array;
     const coefficient = y[i] as number;
-    for (let k = 0; k < length; k++) work[k] = (work[k] as number) + coefficient * (v[k] as number);
+    for (let k = 0; k < length; k++) z[k] = (z[k] as number) + coefficient * (v[k] as number);
   }
-  const correction = solveFactored(factors, work);
-  for (let k = 0; k < length; k++) x0[k] = (x0[k] as number) + (correction[k] as number);
+  solveFactoredInPlace(factors, z);
+  for (let k = 0; k < length; k++) x0[k] = (x0[k] as number) + (z[k] as number);
   // The rotations' residual estimate can run ahead of the true one in round-off (nearly singular
   // matrices, tight tolerances): accept x only on the true residual b - A x.
   multiplyBlockMatrix(structure, values, x0, work);
@@ -193,10 +226,4 @@ function norm(v: Float64Array): number {
   let sum = 0;
   for (let i = 0; i < v.length; i++) sum += (v[i] as number) * (v[i] as number);
   return Math.sqrt(sum);
-}
-
-function scaled(v: Float64Array, factor: number): Float64Array {
-  const out = new Float64Array(v.length);
-  for (let i = 0; i < v.length; i++) out[i] = (v[i] as number) * factor;
-  return out;
 }

@@ -105,7 +105,7 @@ export function initialGuess(system: NetworkSystem): Float64Array {
         : solveWithFrozenFactors(values, kept, rhs, FROZEN_ROUND_TOLERANCE, FROZEN_ROUND_ITERATIONS)
             .x;
     if (solution === undefined) {
-      const factors = factorBlockMatrix(structure, values);
+      const factors = factorBlockMatrix(structure, values, kept);
       if (reuseOfFactorsPays(structure)) kept = factors;
       solution = solveFactored(factors, rhs);
     }

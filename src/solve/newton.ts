@@ -105,7 +105,7 @@ function newtonStep(
     );
     if (frozen.x !== undefined) return frozen.x;
   }
-  const factors = factorBlockMatrix(system.structure, jacobian);
+  const factors = factorBlockMatrix(system.structure, jacobian, solver.factors);
   if (reuseOfFactorsPays(system.structure)) solver.factors = factors;
   return solveFactored(factors, rhs);
 }

@@ -3,17 +3,34 @@
  * such as the Jacobian of a network with a pressure and a temperature unknown per node.
  *
  * Written by hand: the npm registry carries no maintained sparse direct solver (searched for
- * "sparse" among its packages; what exists is sparse storage without factorization). Kept small:
- * a greedy minimum-degree ordering, a symbolic elimination that fixes the fill pattern once, and a
- * numeric factorization that reuses that pattern for every matrix with the same structure (every
- * Newton iteration, every case of a study).
+ * "sparse" among its packages; what exists is sparse storage without factorization). Three parts:
+ *
+ * 1. Ordering (src/solve/fill-reducing-ordering.ts), then a symbolic factorization that fixes the
+ *    fill once per pattern: the elimination tree and each column's structure (J. W. H. Liu, "The
+ *    role of elimination trees in sparse factorization", SIAM J. Matrix Anal. Appl. 11 (1990)
+ *    134-172), the order made a postorder of that tree (same fill, same work), and columns of
+ *    identical structure grouped into supernodes.
+ * 2. A multifrontal numeric factorization (I. S. Duff and J. K. Reid, "The multifrontal solution
+ *    of indefinite sparse symmetric linear equations", ACM TOMS 9 (1983) 302-325; J. W. H. Liu,
+ *    "The multifrontal method for sparse matrix solution: theory and practice", SIAM Review 34
+ *    (1992) 82-109): per supernode a dense frontal matrix gathers the original entries and the
+ *    children's update matrices through precomputed index lists, its pivots are eliminated with
+ *    dense loops, and its Schur complement goes up to the parent. No index is looked up per
+ *    block update.
+ * 3. Triangular solves over the same dense panels.
  *
  * Pivots are the 2 x 2 diagonal blocks in the chosen order (no row exchanges between blocks).
  * This suits nodal network Jacobians, whose diagonal blocks dominate: each node's balance depends
  * most on its own pressure and temperature. A pivot block that is singular or nearly so is
  * reported through {@link BlockLuFactorization.perturbedPivots} after a tiny diagonal shift, so the
  * caller (a Newton iteration that checks its residual) can tell.
+ *
+ * Matrices are handed in the layout of the original pattern ({@link BlockLuStructure.blockIndex}):
+ * 4 numbers per block, diagonal blocks first, then each coupled pair's two blocks; fill lives
+ * only inside the factorization.
  */
+import { minimumDegreeOrdering, nestedDissectionOrdering } from "./fill-reducing-ordering.js";
+import type { GmresWorkspace } from "./frozen-factor-gmres.js";
 
 /** Structure of a block matrix: `neighbours[i]` lists the blocks j != i with A_ij != 0. */
 export interface BlockPattern {
@@ -23,42 +40,77 @@ export interface BlockPattern {
   neighbours: readonly (readonly number[])[];
 }
 
-/** The symbolic part of a factorization: ordering and fill, shared by every matrix of a pattern. */
+/** The symbolic part of a factorization: ordering, fill and supernodes, shared by every matrix of a pattern. */
 export interface BlockLuStructure {
   size: number;
   /** Elimination order: `order[step]` is the block row eliminated at that step. */
   order: Int32Array;
   /** Position of each block row in the elimination order. */
   position: Int32Array;
-  /** Number of stored blocks (diagonal, original off-diagonal and fill). */
+  /**
+   * Number of blocks of a matrix in the original pattern (diagonal and coupled pairs): a matrix
+   * is a Float64Array of 4 * blockCount numbers.
+   */
   blockCount: number;
-  /** Offsets into `laterNeighbours` per elimination step. */
-  laterStart: Int32Array;
-  /**
-   * For each step, the block rows eliminated after it that it is coupled to (after fill), in
-   * elimination order.
-   */
-  laterNeighbours: Int32Array;
-  /** For each step and each later neighbour s: index of block (s, pivot). */
-  lowerBlock: Int32Array;
-  /** For each step and each later neighbour t: index of block (pivot, t). */
-  upperBlock: Int32Array;
-  /**
-   * Cumulative count of block updates (pairs of later neighbours) per step: `updateStart[size]`
-   * is the work of one numeric factorization in 2 x 2 block updates.
-   */
-  updateStart: Int32Array;
-  /** Map from (row, column) to stored block index for the original pattern, row-major lookup. */
+  /** Index of block (row, column) in a matrix of this pattern, or -1 when it is not stored. */
   blockIndex: (row: number, column: number) => number;
-  /** Number of fill blocks the ordering created (0 for a tree eliminated leaves first). */
+  /** Row-wise neighbour lists of the pattern (CSR): row i's are `adjacency[adjacencyStart[i]..]`. */
+  adjacencyStart: Int32Array;
+  /** Neighbours of each row, ascending. */
+  adjacency: Int32Array;
+  /** Index of block (i, adjacency[e]) for each entry e of row i. */
+  adjacencyBlock: Int32Array;
+  /** Number of fill blocks the ordering created (pairs; 0 for a tree eliminated leaves first). */
   fillBlocks: number;
+  /** Off-diagonal blocks of L (pattern and fill), each with its mirror in U. */
+  factorOffDiagonal: number;
+  /** Work of one numeric factorization in 2 x 2 block updates (sum of column counts squared). */
+  factorUpdates: number;
+  /** Work of one triangular solve in 2 x 2 block operations (diagonal and L and U blocks). */
+  solveBlocks: number;
+  /** Number of supernodes (runs of consecutive columns with identical structure). */
+  supernodeCount: number;
+  /** First elimination step of each supernode; `supernodeStart[count]` is the size. */
+  supernodeStart: Int32Array;
+  /** Offsets into `frontNodes` per supernode. */
+  frontStart: Int32Array;
+  /** The block rows of each supernode's front: its own columns, then the later rows, in order. */
+  frontNodes: Int32Array;
+  /** Offsets (in numbers) of each supernode's panels in the factor arrays. */
+  panelStart: Int32Array;
+  /** Offsets into `childStart`-ordered children per supernode (CSR of the supernode tree). */
+  childStart: Int32Array;
+  /** Children of each supernode, in postorder. */
+  children: Int32Array;
+  /** For each supernode, the local front index in its parent's front of each of its later rows. */
+  parentMapStart: Int32Array;
+  parentMap: Int32Array;
+  /** Per supernode, the assembly of the original blocks: source block and front offset. */
+  assemblyStart: Int32Array;
+  assemblySource: Int32Array;
+  assemblyTarget: Int32Array;
+  /** Largest front (in numbers, (2 m)^2) and the update stack's peak (in numbers). */
+  frontCapacity: number;
+  stackCapacity: number;
+  /**
+   * Working memory of GMRES with frozen factors on this structure (src/solve/frozen-factor-gmres.ts),
+   * made on its first use; not state (its contents mean nothing between solves).
+   */
+  gmresWorkspace?: GmresWorkspace;
+  /** Working memory of the numeric factorization, made on its first use; not state either. */
+  factorWorkspace?: { front: Float64Array; stack: Float64Array; updateAt: Int32Array };
 }
 
 /** A numeric factorization, ready for solves. */
 export interface BlockLuFactorization {
   structure: BlockLuStructure;
-  /** Factored blocks: L below the diagonal (unit block diagonal implied), U above. */
-  values: Float64Array;
+  /**
+   * L panels per supernode: the front's first 2 w columns, column-major (leading dimension 2 m),
+   * unit block diagonal implied.
+   */
+  lower: Float64Array;
+  /** U panels per supernode: the front's first 2 w rows, row-major (leading dimension 2 m). */
+  upper: Float64Array;
   /** Inverse of each pivot block, per block row. */
   pivotInverse: Float64Array;
   /** Block rows whose pivot had to be shifted because it was (nearly) singular. */
@@ -66,225 +118,695 @@ export interface BlockLuFactorization {
 }
 
 /**
- * Order the blocks by greedy minimum degree and fix the fill pattern.
+ * Order the blocks, fix the fill pattern and the supernodes.
  *
- * Minimum degree (Tinney and Walker, Proc. IEEE 55 (1967) 1801, "scheme 2") eliminates at each
- * step a block row with the fewest remaining neighbours, breaking ties by the lowest index so the
- * result is deterministic. On a tree it eliminates leaves first and creates no fill at all.
+ * The order is greedy minimum degree (src/solve/fill-reducing-ordering.ts), then made a
+ * postorder of its elimination tree: an equivalent order (the same fill and work) in which each
+ * subtree is eliminated in one run, as the multifrontal factorization needs.
  */
 export function analyzeBlockPattern(pattern: BlockPattern): BlockLuStructure {
   const n = pattern.size;
-  // Adjacency as plain arrays with lazy deletion (entries of eliminated nodes are dropped when a
-  // list is next compacted); a stamp array dedupes without a Set.
-  const adjacency: number[][] = [];
-  for (let i = 0; i < n; i++) adjacency.push([...(pattern.neighbours[i] ?? [])]);
-  const eliminated = new Uint8Array(n);
-  const stamp = new Int32Array(n).fill(-1);
-  const degree = new Int32Array(n);
-  const compact = (node: number, mark: number): number[] => {
-    const list = adjacency[node] as number[];
-    let kept = 0;
-    for (let k = 0; k < list.length; k++) {
-      const other = list[k] as number;
-      if (eliminated[other] === 1 || other === node || stamp[other] === mark) continue;
-      stamp[other] = mark;
-      list[kept++] = other;
-    }
-    list.length = kept;
-    return list;
-  };
-  // Binary heap of (degree, index) with lazy deletion: a popped entry whose degree is stale is
-  // skipped. Ties go to the lowest index, so the ordering is deterministic.
-  const heap = new MinHeap();
-  let mark = 0;
-  for (let i = 0; i < n; i++) {
-    degree[i] = compact(i, mark++).length;
-    heap.push(degree[i] as number, i);
-  }
-  const order = new Int32Array(n);
-  const laterLists: number[][] = [];
-  let fillBlocks = 0;
-  for (let step = 0; step < n; step++) {
-    let pivot = -1;
-    while (pivot < 0) {
-      const [d, node] = heap.pop();
-      if (eliminated[node] === 0 && degree[node] === d) pivot = node;
-    }
-    order[step] = pivot;
-    eliminated[pivot] = 1;
-    const neighbours = compact(pivot, mark++).slice();
-    laterLists.push(neighbours);
-    // Eliminating the pivot couples all its remaining neighbours pairwise (fill).
-    for (const s of neighbours) {
-      const list = compact(s, mark); // stamps s's live neighbours with `mark`
-      for (const t of neighbours) {
-        if (t !== s && stamp[t] !== mark) {
-          stamp[t] = mark;
-          list.push(t);
-          fillBlocks++;
-        }
-      }
-      mark++;
-      degree[s] = list.length;
-      heap.push(degree[s] as number, s);
-    }
-  }
-  fillBlocks /= 2;
-
-  const position = new Int32Array(n);
-  for (let step = 0; step < n; step++) position[order[step] as number] = step;
-
-  // Block numbering: diagonal blocks first (index = row); then, for the k-th later neighbour s
-  // of each step's pivot, block (s, pivot) at n + 2k and block (pivot, s) at n + 2k + 1. Every
-  // off-diagonal pair of the filled pattern belongs to exactly one step: the one that eliminates
-  // the first of its two rows.
-  const laterStart = new Int32Array(n + 1);
-  const updateStart = new Int32Array(n + 1);
-  for (let step = 0; step < n; step++) {
-    const count = (laterLists[step] as number[]).length;
-    laterStart[step + 1] = (laterStart[step] as number) + count;
-    updateStart[step + 1] = (updateStart[step] as number) + count * count;
-  }
-  const laterNeighbours = new Int32Array(laterStart[n] as number);
-  for (let step = 0; step < n; step++)
-    laterNeighbours.set(
-      (laterLists[step] as number[]).sort(
-        (a, b) => (position[a] as number) - (position[b] as number),
-      ),
-      laterStart[step] as number,
-    );
-  const blockCount = n + 2 * (laterStart[n] as number);
-  const lookup = (row: number, column: number): number => {
-    if (row === column) return row;
-    const rowFirst = (position[row] as number) < (position[column] as number);
-    const first = rowFirst ? row : column;
-    const second = rowFirst ? column : row;
-    const step = position[first] as number;
-    // Binary search of the later neighbours of `first`, sorted by elimination order.
-    let lo = laterStart[step] as number;
-    let hi = (laterStart[step + 1] as number) - 1;
+  const { adjacencyStart, adjacency, adjacencyBlock, pairCount } = patternIndex(pattern);
+  const blockCount = n + 2 * pairCount;
+  const blockIndex = (row: number, column: number): number => {
+    if (row === column) return row >= 0 && row < n ? row : -1;
+    let lo = adjacencyStart[row] as number;
+    let hi = (adjacencyStart[row + 1] as number) - 1;
     while (lo <= hi) {
       const mid = (lo + hi) >> 1;
-      const value = laterNeighbours[mid] as number;
-      if (value === second) return n + 2 * mid + (rowFirst ? 1 : 0);
-      if ((position[value] as number) < (position[second] as number)) lo = mid + 1;
+      const value = adjacency[mid] as number;
+      if (value === column) return adjacencyBlock[mid] as number;
+      if (value < column) lo = mid + 1;
       else hi = mid - 1;
     }
     return -1;
   };
-  const lowerBlock = new Int32Array(laterStart[n] as number);
-  const upperBlock = new Int32Array(laterStart[n] as number);
-  for (let k = 0; k < laterNeighbours.length; k++) {
-    lowerBlock[k] = n + 2 * k;
-    upperBlock[k] = n + 2 * k + 1;
+
+  // Minimum degree, and on larger meshed patterns nested dissection too: the one whose
+  // factorization costs fewer block updates (symbolic counts, a small fraction of one numeric
+  // factorization).
+  let ordering = minimumDegreeOrdering(pattern);
+  let first = columnStructure(n, adjacencyStart, adjacency, ordering);
+  if (n >= DISSECTION_MIN_SIZE && meshedEnough(first.structureStart)) {
+    const dissection = nestedDissectionOrdering(pattern);
+    const other = columnStructure(n, adjacencyStart, adjacency, dissection);
+    if (updatesOf(other.structureStart) < updatesOf(first.structureStart)) {
+      ordering = dissection;
+      first = other;
+    }
   }
+  // The first pass gives the elimination tree of the ordering; its postorder is the final order.
+  const order = postorder(n, first.parent, ordering);
+  const { parent, structureStart, structureRows } = columnStructure(
+    n,
+    adjacencyStart,
+    adjacency,
+    order,
+  );
+  const position = new Int32Array(n);
+  for (let step = 0; step < n; step++) position[order[step] as number] = step;
+
+  let factorOffDiagonal = 0;
+  let factorUpdates = 0;
+  for (let j = 0; j < n; j++) {
+    const count = (structureStart[j + 1] as number) - (structureStart[j] as number);
+    factorOffDiagonal += count;
+    factorUpdates += count * count;
+  }
+
+  // Supernodes: column j joins the run before it when it is the parent of the run's last
+  // column and the run's columns, given j's front ({later columns of the run} and j's
+  // structure), would hold few explicit zeros (relaxed supernodes: C. Ashcraft and R. Grimes,
+  // "The influence of relaxed supernode partitions on the multifrontal method", ACM TOMS 15
+  // (1989) 291-309). Identical structures (no zeros) always join. The zeros stay exact zeros:
+  // every product that reaches them has a factor that is structurally zero.
+  const starts: number[] = [];
+  let runCounts = 0; // sum of the structure counts of the run's columns
+  for (let j = 0; j < n; j++) {
+    const count = (structureStart[j + 1] as number) - (structureStart[j] as number);
+    const width = j - (starts[starts.length - 1] ?? 0) + 1; // the run's width if j joins
+    let joins = j > 0 && parent[j - 1] === j;
+    if (joins) {
+      const entries = (width * (width - 1)) / 2 + width * count;
+      const zeros = entries - (runCounts + count);
+      joins = zeros <= RELAXED_ZERO_SHARE * entries;
+    }
+    if (joins) runCounts += count;
+    else {
+      starts.push(j);
+      runCounts = count;
+    }
+  }
+  const supernodeCount = starts.length;
+  const supernodeStart = new Int32Array(supernodeCount + 1);
+  supernodeStart.set(starts);
+  supernodeStart[supernodeCount] = n;
+  const supernodeOf = new Int32Array(n);
+  for (let s = 0; s < supernodeCount; s++) {
+    for (let j = supernodeStart[s] as number; j < (supernodeStart[s + 1] as number); j++)
+      supernodeOf[j] = s;
+  }
+
+  // Fronts (in elimination steps, ascending): the supernode's columns, then its last column's
+  // structure. Panels hold 4 m w numbers each (L and U alike).
+  const frontStart = new Int32Array(supernodeCount + 1);
+  for (let s = 0; s < supernodeCount; s++) {
+    const last = (supernodeStart[s + 1] as number) - 1;
+    const width = last + 1 - (supernodeStart[s] as number);
+    const rows = (structureStart[last + 1] as number) - (structureStart[last] as number);
+    frontStart[s + 1] = (frontStart[s] as number) + width + rows;
+  }
+  const frontSteps = new Int32Array(frontStart[supernodeCount] as number);
+  const panelStart = new Int32Array(supernodeCount + 1);
+  const supernodeParent = new Int32Array(supernodeCount).fill(-1);
+  let frontCapacity = 0;
+  for (let s = 0; s < supernodeCount; s++) {
+    const firstStep = supernodeStart[s] as number;
+    const last = (supernodeStart[s + 1] as number) - 1;
+    let k = frontStart[s] as number;
+    for (let j = firstStep; j <= last; j++) frontSteps[k++] = j;
+    for (let e = structureStart[last] as number; e < (structureStart[last + 1] as number); e++)
+      frontSteps[k++] = structureRows[e] as number;
+    const m = (frontStart[s + 1] as number) - (frontStart[s] as number);
+    const width = last + 1 - firstStep;
+    panelStart[s + 1] = (panelStart[s] as number) + 4 * m * width;
+    frontCapacity = Math.max(frontCapacity, 4 * m * m);
+    const up = parent[last] as number;
+    if (up >= 0) supernodeParent[s] = supernodeOf[up] as number;
+  }
+  const frontNodes = new Int32Array(frontSteps.length);
+  for (let k = 0; k < frontSteps.length; k++)
+    frontNodes[k] = order[frontSteps[k] as number] as number;
+
+  // Local index of a step within supernode s's front (fronts are ascending: binary search).
+  const localIndex = (s: number, step: number): number => {
+    let lo = frontStart[s] as number;
+    let hi = (frontStart[s + 1] as number) - 1;
+    while (lo <= hi) {
+      const mid = (lo + hi) >> 1;
+      const value = frontSteps[mid] as number;
+      if (value === step) return mid - (frontStart[s] as number);
+      if (value < step) lo = mid + 1;
+      else hi = mid - 1;
+    }
+    throw new Error("sparse-block-lu: a front misses a row of its child (defect)");
+  };
+
+  // Supernode tree as CSR (children in postorder) and each child's rows in its parent's front.
+  const childStart = new Int32Array(supernodeCount + 1);
+  for (let s = 0; s < supernodeCount; s++) {
+    const up = supernodeParent[s] as number;
+    if (up >= 0) childStart[up + 1] = (childStart[up + 1] as number) + 1;
+  }
+  for (let s = 0; s < supernodeCount; s++)
+    childStart[s + 1] = (childStart[s + 1] as number) + (childStart[s] as number);
+  const children = new Int32Array(childStart[supernodeCount] as number);
+  const filled = childStart.slice(0, supernodeCount);
+  const parentMapStart = new Int32Array(supernodeCount + 1);
+  for (let s = 0; s < supernodeCount; s++) {
+    const width = (supernodeStart[s + 1] as number) - (supernodeStart[s] as number);
+    const m = (frontStart[s + 1] as number) - (frontStart[s] as number);
+    parentMapStart[s + 1] = (parentMapStart[s] as number) + m - width;
+    const up = supernodeParent[s] as number;
+    if (up >= 0) {
+      children[filled[up] as number] = s;
+      filled[up] = (filled[up] as number) + 1;
+    }
+  }
+  const parentMap = new Int32Array(parentMapStart[supernodeCount] as number);
+  for (let s = 0; s < supernodeCount; s++) {
+    const up = supernodeParent[s] as number;
+    if (up < 0) continue;
+    const width = (supernodeStart[s + 1] as number) - (supernodeStart[s] as number);
+    const base = (frontStart[s] as number) + width;
+    for (let k = parentMapStart[s] as number; k < (parentMapStart[s + 1] as number); k++) {
+      parentMap[k] = localIndex(up, frontSteps[base + k - (parentMapStart[s] as number)] as number);
+    }
+  }
+
+  // Update stack's peak: walk the postorder, pushing each supernode's (2 r)^2 update and popping
+  // its children's.
+  let stack = 0;
+  let stackCapacity = 0;
+  const updateSize = new Float64Array(supernodeCount);
+  for (let s = 0; s < supernodeCount; s++) {
+    for (let c = childStart[s] as number; c < (childStart[s + 1] as number); c++)
+      stack -= updateSize[children[c] as number] as number;
+    const rows = (parentMapStart[s + 1] as number) - (parentMapStart[s] as number);
+    updateSize[s] = 4 * rows * rows;
+    stack += updateSize[s] as number;
+    stackCapacity = Math.max(stackCapacity, stack);
+  }
+
+  // Assembly lists: for each column, its diagonal block and its blocks with later rows, into
+  // the front of its supernode (scalar offset of the block's top-left number, row-major 2 m).
+  const assemblyStart = new Int32Array(supernodeCount + 1);
+  const sources: number[] = [];
+  const targets: number[] = [];
+  for (let s = 0; s < supernodeCount; s++) {
+    const m = (frontStart[s + 1] as number) - (frontStart[s] as number);
+    const lead = 2 * m;
+    const firstStep = supernodeStart[s] as number;
+    for (let j = firstStep; j < (supernodeStart[s + 1] as number); j++) {
+      const node = order[j] as number;
+      const own = j - firstStep;
+      sources.push(node);
+      targets.push(2 * own * lead + 2 * own);
+      for (let e = adjacencyStart[node] as number; e < (adjacencyStart[node + 1] as number); e++) {
+        const other = adjacency[e] as number;
+        const otherStep = position[other] as number;
+        if (otherStep < j) continue;
+        const local = localIndex(s, otherStep);
+        const pairBlock = adjacencyBlock[e] as number; // block (node, other)
+        const mirror = pairBlock - n - 2 * Math.floor((pairBlock - n) / 2); // 0 or 1
+        const otherBlock = pairBlock + (mirror === 0 ? 1 : -1); // block (other, node)
+        sources.push(pairBlock);
+        targets.push(2 * own * lead + 2 * local);
+        sources.push(otherBlock);
+        targets.push(2 * local * lead + 2 * own);
+      }
+    }
+    assemblyStart[s + 1] = sources.length;
+  }
+
   return {
     size: n,
     order,
     position,
     blockCount,
-    laterStart,
-    laterNeighbours,
-    lowerBlock,
-    upperBlock,
-    updateStart,
-    blockIndex: lookup,
-    fillBlocks,
+    blockIndex,
+    adjacencyStart,
+    adjacency,
+    adjacencyBlock,
+    fillBlocks: factorOffDiagonal - pairCount,
+    factorOffDiagonal,
+    factorUpdates,
+    solveBlocks: n + 2 * factorOffDiagonal,
+    supernodeCount,
+    supernodeStart,
+    frontStart,
+    frontNodes,
+    panelStart,
+    childStart,
+    children,
+    parentMapStart,
+    parentMap,
+    assemblyStart,
+    assemblySource: Int32Array.from(sources),
+    assemblyTarget: Int32Array.from(targets),
+    frontCapacity,
+    stackCapacity,
   };
 }
 
 /**
- * Factor a block matrix with the given structure. `values` holds 4 numbers per stored block,
- * row-major within the block ([a11, a12, a21, a22]), at the indices of `structure.blockIndex`;
- * fill blocks must be zero. The array is copied, not changed.
+ * Share of explicit zeros (blocks of L per column, counted in a supernode's front) that a
+ * relaxed supernode may hold: merging a chain of small fronts into one saves their assembly,
+ * extend-add and copies, at the price of some arithmetic on zeros.
+ */
+const RELAXED_ZERO_SHARE = 0.1;
+
+/**
+ * Patterns of at least this many block rows are ordered both ways (below it minimum degree
+ * alone: small networks factor as they always did, and nested dissection does not pay there).
+ */
+const DISSECTION_MIN_SIZE = 1000;
+
+/**
+ * Whether minimum degree's factorization costs over 15 of its triangular solves (in block
+ * operations): a meshed core, where dissection may do better. Below that (trees, tree-heavy
+ * networks) it cannot gain much and its analysis is not worth running.
+ */
+function meshedEnough(structureStart: Int32Array): boolean {
+  const n = structureStart.length - 1;
+  const solveBlocks = n + 2 * (structureStart[n] as number);
+  return updatesOf(structureStart) > 15 * solveBlocks;
+}
+
+/** Block updates of a factorization with these column structures (sum of counts squared). */
+function updatesOf(structureStart: Int32Array): number {
+  let updates = 0;
+  for (let j = 0; j + 1 < structureStart.length; j++) {
+    const count = (structureStart[j + 1] as number) - (structureStart[j] as number);
+    updates += count * count;
+  }
+  return updates;
+}
+
+/**
+ * The pattern as sorted CSR rows, each coupled pair {i, j} (i < j) numbered k in order of i then
+ * j: block (i, j) at n + 2 k, block (j, i) at n + 2 k + 1.
+ */
+function patternIndex(pattern: BlockPattern) {
+  const n = pattern.size;
+  const adjacencyStart = new Int32Array(n + 1);
+  const rows: Int32Array[] = [];
+  for (let i = 0; i < n; i++) {
+    const row = Int32Array.from(pattern.neighbours[i] ?? []).sort();
+    let kept = 0;
+    for (let k = 0; k < row.length; k++) {
+      const value = row[k] as number;
+      if (value !== i && (kept === 0 || row[kept - 1] !== value)) row[kept++] = value;
+    }
+    rows.push(row.subarray(0, kept));
+    adjacencyStart[i + 1] = (adjacencyStart[i] as number) + kept;
+  }
+  const adjacency = new Int32Array(adjacencyStart[n] as number);
+  for (let i = 0; i < n; i++) adjacency.set(rows[i] as Int32Array, adjacencyStart[i] as number);
+  const adjacencyBlock = new Int32Array(adjacency.length);
+  let pairCount = 0;
+  for (let i = 0; i < n; i++) {
+    for (let e = adjacencyStart[i] as number; e < (adjacencyStart[i + 1] as number); e++) {
+      const j = adjacency[e] as number;
+      if (j < i) continue;
+      adjacencyBlock[e] = n + 2 * pairCount;
+      // The mirror entry (j, i): found in j's sorted row.
+      let lo = adjacencyStart[j] as number;
+      let hi = (adjacencyStart[j + 1] as number) - 1;
+      while (lo <= hi) {
+        const mid = (lo + hi) >> 1;
+        const value = adjacency[mid] as number;
+        if (value === i) {
+          adjacencyBlock[mid] = n + 2 * pairCount + 1;
+          break;
+        }
+        if (value < i) lo = mid + 1;
+        else hi = mid - 1;
+      }
+      if (lo > hi) throw new Error(`sparse-block-lu: pattern not symmetric at (${i}, ${j})`);
+      pairCount++;
+    }
+  }
+  return { adjacencyStart, adjacency, adjacencyBlock, pairCount };
+}
+
+/**
+ * Column structures of the factor for an order (in elimination steps): the later rows coupled to
+ * step j after fill are its later original neighbours and its children's structures less j
+ * (Liu 1990, section 3); its parent in the elimination tree is the first of them.
+ */
+function columnStructure(
+  n: number,
+  adjacencyStart: Int32Array,
+  adjacency: Int32Array,
+  order: Int32Array,
+) {
+  const position = new Int32Array(n);
+  for (let step = 0; step < n; step++) position[order[step] as number] = step;
+  const parent = new Int32Array(n).fill(-1);
+  const firstChild = new Int32Array(n).fill(-1);
+  const nextSibling = new Int32Array(n).fill(-1);
+  const mark = new Int32Array(n).fill(-1);
+  const structureStart = new Int32Array(n + 1);
+  let rows = new Int32Array(Math.max(16, 2 * adjacency.length));
+  let used = 0;
+  const push = (value: number) => {
+    if (used === rows.length) {
+      const grown = new Int32Array(2 * rows.length);
+      grown.set(rows);
+      rows = grown;
+    }
+    rows[used++] = value;
+  };
+  for (let j = 0; j < n; j++) {
+    mark[j] = j;
+    const node = order[j] as number;
+    for (let e = adjacencyStart[node] as number; e < (adjacencyStart[node + 1] as number); e++) {
+      const step = position[adjacency[e] as number] as number;
+      if (step > j && mark[step] !== j) {
+        mark[step] = j;
+        push(step);
+      }
+    }
+    for (let c = firstChild[j] as number; c >= 0; c = nextSibling[c] as number) {
+      for (let e = structureStart[c] as number; e < (structureStart[c + 1] as number); e++) {
+        const step = rows[e] as number;
+        if (step > j && mark[step] !== j) {
+          mark[step] = j;
+          push(step);
+        }
+      }
+    }
+    const begin = structureStart[j] as number;
+    rows.subarray(begin, used).sort();
+    structureStart[j + 1] = used;
+    if (used > begin) {
+      const up = rows[begin] as number;
+      parent[j] = up;
+      nextSibling[j] = firstChild[up] as number;
+      firstChild[up] = j;
+    }
+  }
+  return { parent, structureStart, structureRows: rows.subarray(0, used) };
+}
+
+/** The order permuted to a postorder of its elimination tree (children by ascending step). */
+function postorder(n: number, parent: Int32Array, order: Int32Array): Int32Array {
+  const childStart = new Int32Array(n + 1);
+  for (let j = 0; j < n; j++) {
+    const up = parent[j] as number;
+    if (up >= 0) childStart[up + 1] = (childStart[up + 1] as number) + 1;
+  }
+  for (let j = 0; j < n; j++)
+    childStart[j + 1] = (childStart[j + 1] as number) + (childStart[j] as number);
+  const children = new Int32Array(n);
+  const filled = childStart.slice(0, n);
+  for (let j = 0; j < n; j++) {
+    const up = parent[j] as number;
+    if (up >= 0) {
+      children[filled[up] as number] = j;
+      filled[up] = (filled[up] as number) + 1;
+    }
+  }
+  const result = new Int32Array(n);
+  const stackNode = new Int32Array(n);
+  const stackNext = new Int32Array(n);
+  let count = 0;
+  for (let root = 0; root < n; root++) {
+    if (parent[root] !== -1) continue;
+    let depth = 0;
+    stackNode[0] = root;
+    stackNext[0] = childStart[root] as number;
+    while (depth >= 0) {
+      const node = stackNode[depth] as number;
+      const next = stackNext[depth] as number;
+      if (next < (childStart[node + 1] as number)) {
+        stackNext[depth] = next + 1;
+        depth++;
+        const child = children[next] as number;
+        stackNode[depth] = child;
+        stackNext[depth] = childStart[child] as number;
+      } else {
+        result[count++] = order[node] as number;
+        depth--;
+      }
+    }
+  }
+  return result;
+}
+
+/**
+ * Factor a block matrix with the given structure. `values` holds 4 numbers per block of the
+ * original pattern, row-major within the block ([a11, a12, a21, a22]), at the indices of
+ * `structure.blockIndex`. The array is read, not changed.
+ *
+ * `replaced`, an earlier factorization of the same structure that the caller no longer needs,
+ * lends its storage (the panels are the bulk of a large network's memory: 90 MB on the
+ * 100,000-edge grid); it must not be used afterwards.
  */
 export function factorBlockMatrix(
   structure: BlockLuStructure,
   values: Float64Array,
+  replaced?: BlockLuFactorization,
 ): BlockLuFactorization {
-  const a = Float64Array.from(values);
   const n = structure.size;
-  const pivotInverse = new Float64Array(4 * n);
+  const {
+    order,
+    supernodeCount,
+    supernodeStart,
+    frontStart,
+    panelStart,
+    childStart,
+    children,
+    parentMapStart,
+    parentMap,
+    assemblyStart,
+    assemblySource,
+    assemblyTarget,
+  } = structure;
+  const reuse = replaced !== undefined && replaced.structure === structure;
+  const lower = reuse ? replaced.lower : new Float64Array(panelStart[supernodeCount] as number);
+  const upper = reuse ? replaced.upper : new Float64Array(panelStart[supernodeCount] as number);
+  const pivotInverse = reuse ? replaced.pivotInverse : new Float64Array(4 * n);
   const perturbedPivots: number[] = [];
-  const { order, position, laterStart, laterNeighbours, lowerBlock, upperBlock } = structure;
-  // slot[t]: index k of t among the later neighbours of the row being updated (block (s, t) is
-  // then n + 2k + 1, block (t, s) n + 2k). Scattered per row instead of a stored index per
-  // update, which took 4 bytes per block update (140 MB at 100,000 edges).
-  const slot = new Int32Array(n);
-  for (let step = 0; step < n; step++) {
-    const pivot = order[step] as number;
-    const p = 4 * pivot;
-    let a11 = a[p] as number;
-    const a12 = a[p + 1] as number;
-    const a21 = a[p + 2] as number;
-    let a22 = a[p + 3] as number;
-    // Singularity test invariant to scaling either row: |det| against the product of the rows'
-    // sizes (a network's mass and energy rows can differ by ten orders of magnitude).
-    const rowOne = Math.abs(a11) + Math.abs(a12);
-    const rowTwo = Math.abs(a21) + Math.abs(a22);
-    const scale = Math.max(Math.abs(a11), Math.abs(a12), Math.abs(a21), Math.abs(a22), 1e-300);
-    let det = a11 * a22 - a12 * a21;
-    if (!(Math.abs(det) > 1e-14 * rowOne * rowTwo)) {
-      // Singular pivot: shift the diagonal a little so the factorization can go on; the caller
-      // sees the row in perturbedPivots and its Newton step is then only approximate.
-      perturbedPivots.push(pivot);
-      // Each row's shift is relative to that row's own size.
-      const shiftOne = 1e-10 * (rowOne > 0 ? rowOne : scale);
-      const shiftTwo = 1e-10 * (rowTwo > 0 ? rowTwo : scale);
-      a11 += a11 >= 0 ? shiftOne : -shiftOne;
-      a22 += a22 >= 0 ? shiftTwo : -shiftTwo;
-      det = a11 * a22 - a12 * a21;
-      if (det === 0) {
-        a11 += shiftOne;
-        a22 += shiftTwo;
-        det = a11 * a22 - a12 * a21;
+  if (structure.factorWorkspace === undefined) {
+    structure.factorWorkspace = {
+      front: new Float64Array(structure.frontCapacity),
+      stack: new Float64Array(structure.stackCapacity),
+      updateAt: new Int32Array(supernodeCount),
+    };
+  }
+  // The front, the stack of children's Schur complements, and the start of each pending one on
+  // it (children are on top, the last child last).
+  const { front, stack, updateAt } = structure.factorWorkspace;
+  let top = 0;
+  for (let s = 0; s < supernodeCount; s++) {
+    const firstStep = supernodeStart[s] as number;
+    const width = (supernodeStart[s + 1] as number) - firstStep;
+    const m = (frontStart[s + 1] as number) - (frontStart[s] as number);
+    const lead = 2 * m;
+    front.fill(0, 0, lead * lead);
+    for (let k = assemblyStart[s] as number; k < (assemblyStart[s + 1] as number); k++) {
+      const source = 4 * (assemblySource[k] as number);
+      const target = assemblyTarget[k] as number;
+      front[target] = (front[target] as number) + (values[source] as number);
+      front[target + 1] = (front[target + 1] as number) + (values[source + 1] as number);
+      front[target + lead] = (front[target + lead] as number) + (values[source + 2] as number);
+      front[target + lead + 1] =
+        (front[target + lead + 1] as number) + (values[source + 3] as number);
+    }
+    // Extend-add each child's update matrix (2 r x 2 r, row-major) through its parent map.
+    for (let c = childStart[s] as number; c < (childStart[s + 1] as number); c++) {
+      const child = children[c] as number;
+      const mapStart = parentMapStart[child] as number;
+      const rows = (parentMapStart[child + 1] as number) - mapStart;
+      const childLead = 2 * rows;
+      const base = updateAt[child] as number;
+      for (let i = 0; i < rows; i++) {
+        const li = 2 * (parentMap[mapStart + i] as number);
+        const sourceRow = base + 2 * i * childLead;
+        const targetRow = li * lead;
+        for (let j = 0; j < rows; j++) {
+          const lj = 2 * (parentMap[mapStart + j] as number);
+          const from = sourceRow + 2 * j;
+          const to = targetRow + lj;
+          front[to] = (front[to] as number) + (stack[from] as number);
+          front[to + 1] = (front[to + 1] as number) + (stack[from + 1] as number);
+          front[to + lead] = (front[to + lead] as number) + (stack[from + childLead] as number);
+          front[to + lead + 1] =
+            (front[to + lead + 1] as number) + (stack[from + childLead + 1] as number);
+        }
       }
     }
-    const inv11 = a22 / det;
-    const inv12 = -a12 / det;
-    const inv21 = -a21 / det;
-    const inv22 = a11 / det;
-    pivotInverse[p] = inv11;
-    pivotInverse[p + 1] = inv12;
-    pivotInverse[p + 2] = inv21;
-    pivotInverse[p + 3] = inv22;
-    const start = laterStart[step] as number;
-    const count = (laterStart[step + 1] as number) - start;
-    // L_s = A_s,pivot * inv(A_pivot,pivot), stored in place of A_s,pivot.
-    for (let i = 0; i < count; i++) {
-      const q = 4 * (lowerBlock[start + i] as number);
-      const b11 = a[q] as number;
-      const b12 = a[q + 1] as number;
-      const b21 = a[q + 2] as number;
-      const b22 = a[q + 3] as number;
-      a[q] = b11 * inv11 + b12 * inv21;
-      a[q + 1] = b11 * inv12 + b12 * inv22;
-      a[q + 2] = b21 * inv11 + b22 * inv21;
-      a[q + 3] = b21 * inv12 + b22 * inv22;
+    if ((childStart[s + 1] as number) > (childStart[s] as number))
+      top = updateAt[children[childStart[s] as number] as number] as number;
+
+    eliminatePivots(front, lead, width, firstStep, order, pivotInverse, perturbedPivots);
+    // Keep the panels: L's first 2 w columns (column-major), U's first 2 w rows (row-major).
+    const panel = panelStart[s] as number;
+    for (let column = 0; column < 2 * width; column++) {
+      const to = panel + column * lead;
+      for (let row = 0; row < lead; row++) lower[to + row] = front[row * lead + column] as number;
     }
-    // A_s,t -= L_s * A_pivot,t for every pair of later neighbours (s, t): each pair once, with
-    // s the one eliminated first, updating (s, t) and (t, s); and (s, s).
-    for (let i = 0; i < count; i++) {
-      const s = laterNeighbours[start + i] as number;
-      const own = position[s] as number;
-      for (let k = laterStart[own] as number; k < (laterStart[own + 1] as number); k++) {
-        slot[laterNeighbours[k] as number] = k;
+    upper.set(front.subarray(0, 2 * width * lead), panel);
+    // Push the Schur complement (the trailing 2 r x 2 r) for the parent.
+    const rows = m - width;
+    updateAt[s] = top;
+    for (let row = 0; row < 2 * rows; row++) {
+      const from = (2 * width + row) * lead + 2 * width;
+      stack.set(front.subarray(from, from + 2 * rows), top + row * 2 * rows);
+    }
+    top += 4 * rows * rows;
+  }
+  return { structure, lower, upper, pivotInverse, perturbedPivots };
+}
+
+/**
+ * Pivots eliminated together in one panel of a front: the trailing part is then updated once per
+ * panel (a product of the panel's L and U parts) instead of once per pivot, so that a large
+ * front streams through the cache PANEL_PIVOTS times less often.
+ */
+const PANEL_PIVOTS = 12;
+
+/**
+ * Eliminate the first `width` 2 x 2 pivots of a dense front (row-major, leading dimension
+ * `lead`): L_ik = F_ik inv(F_kk) and F_ij -= L_ik F_kj for i, j > k, in panels of
+ * PANEL_PIVOTS pivots (right-looking blocked LU without exchanges: the same operations as one
+ * pivot at a time, in another order). Leaves L below the diagonal, U on and above it, the
+ * Schur complement in the trailing part.
+ */
+function eliminatePivots(
+  front: Float64Array,
+  lead: number,
+  width: number,
+  firstStep: number,
+  order: Int32Array,
+  pivotInverse: Float64Array,
+  perturbedPivots: number[],
+): void {
+  for (let panelFirst = 0; panelFirst < width; panelFirst += PANEL_PIVOTS) {
+    const panelEnd = Math.min(width, panelFirst + PANEL_PIVOTS);
+    const panelColumns = 2 * panelEnd; // first column after the panel
+    // 1. The panel's columns, every row: pivot inverses, L, and updates inside the panel.
+    for (let k = panelFirst; k < panelEnd; k++) {
+      const pivot = order[firstStep + k] as number;
+      const q = 4 * pivot;
+      invertPivot(front, 2 * k * lead + 2 * k, lead, pivot, pivotInverse, perturbedPivots);
+      const inv11 = pivotInverse[q] as number;
+      const inv12 = pivotInverse[q + 1] as number;
+      const inv21 = pivotInverse[q + 2] as number;
+      const inv22 = pivotInverse[q + 3] as number;
+      const pivotRowOne = 2 * k * lead;
+      const pivotRowTwo = pivotRowOne + lead;
+      for (let row = 2 * k + 2; row < lead; row++) {
+        const at = row * lead;
+        const b1 = front[at + 2 * k] as number;
+        const b2 = front[at + 2 * k + 1] as number;
+        const l1 = b1 * inv11 + b2 * inv21;
+        const l2 = b1 * inv12 + b2 * inv22;
+        front[at + 2 * k] = l1;
+        front[at + 2 * k + 1] = l2;
+        for (let column = 2 * k + 2; column < panelColumns; column++) {
+          front[at + column] =
+            (front[at + column] as number) -
+            (l1 * (front[pivotRowOne + column] as number) +
+              l2 * (front[pivotRowTwo + column] as number));
+        }
       }
-      const li = 4 * (lowerBlock[start + i] as number);
-      const ui = 4 * (upperBlock[start + i] as number);
-      subtractProduct(a, li, ui, 4 * s);
-      // Later neighbours are in elimination order: those after s are the ones after i.
-      for (let j = i + 1; j < count; j++) {
-        const t = laterNeighbours[start + j] as number;
-        const k = slot[t] as number;
-        const lj = 4 * (lowerBlock[start + j] as number);
-        const uj = 4 * (upperBlock[start + j] as number);
-        subtractProduct(a, li, uj, 4 * (n + 2 * k + 1)); // (s, t)
-        subtractProduct(a, lj, ui, 4 * (n + 2 * k)); // (t, s)
+    }
+    if (panelColumns >= lead) continue;
+    // 2. The panel's rows right of it: U = inv(L_panel) F (unit block lower triangular solve).
+    for (let k = panelFirst; k < panelEnd; k++) {
+      const pivotRowOne = 2 * k * lead;
+      const pivotRowTwo = pivotRowOne + lead;
+      for (let row = 2 * k + 2; row < panelColumns; row++) {
+        const at = row * lead;
+        const l1 = front[at + 2 * k] as number;
+        const l2 = front[at + 2 * k + 1] as number;
+        for (let column = panelColumns; column < lead; column++) {
+          front[at + column] =
+            (front[at + column] as number) -
+            (l1 * (front[pivotRowOne + column] as number) +
+              l2 * (front[pivotRowTwo + column] as number));
+        }
+      }
+    }
+    // 3. The trailing part: F22 -= L21 U12, four of the panel's columns at a time.
+    const panelFirstColumn = 2 * panelFirst;
+    for (let row = panelColumns; row < lead; row++) {
+      const at = row * lead;
+      let t = panelFirstColumn;
+      for (; t + 3 < panelColumns; t += 4) {
+        const l1 = front[at + t] as number;
+        const l2 = front[at + t + 1] as number;
+        const l3 = front[at + t + 2] as number;
+        const l4 = front[at + t + 3] as number;
+        if (l1 === 0 && l2 === 0 && l3 === 0 && l4 === 0) continue;
+        const u1 = t * lead;
+        const u2 = u1 + lead;
+        const u3 = u2 + lead;
+        const u4 = u3 + lead;
+        for (let column = panelColumns; column < lead; column++) {
+          front[at + column] =
+            (front[at + column] as number) -
+            (l1 * (front[u1 + column] as number) +
+              l2 * (front[u2 + column] as number) +
+              l3 * (front[u3 + column] as number) +
+              l4 * (front[u4 + column] as number));
+        }
+      }
+      for (; t < panelColumns; t += 2) {
+        const l1 = front[at + t] as number;
+        const l2 = front[at + t + 1] as number;
+        if (l1 === 0 && l2 === 0) continue;
+        const u1 = t * lead;
+        const u2 = u1 + lead;
+        for (let column = panelColumns; column < lead; column++) {
+          front[at + column] =
+            (front[at + column] as number) -
+            (l1 * (front[u1 + column] as number) + l2 * (front[u2 + column] as number));
+        }
       }
     }
   }
-  return { structure, values: a, pivotInverse, perturbedPivots };
+}
+
+/**
+ * Invert the 2 x 2 pivot block at `p` of a front (leading dimension `lead`) into
+ * pivotInverse[4 pivot..]. A (nearly) singular block is shifted a little first and its row
+ * listed in perturbedPivots.
+ */
+function invertPivot(
+  front: Float64Array,
+  p: number,
+  lead: number,
+  pivot: number,
+  pivotInverse: Float64Array,
+  perturbedPivots: number[],
+): void {
+  let a11 = front[p] as number;
+  const a12 = front[p + 1] as number;
+  const a21 = front[p + lead] as number;
+  let a22 = front[p + lead + 1] as number;
+  // Singularity test invariant to scaling either row: |det| against the product of the rows'
+  // sizes (a network's mass and energy rows can differ by ten orders of magnitude).
+  const rowOne = Math.abs(a11) + Math.abs(a12);
+  const rowTwo = Math.abs(a21) + Math.abs(a22);
+  const scale = Math.max(Math.abs(a11), Math.abs(a12), Math.abs(a21), Math.abs(a22), 1e-300);
+  let det = a11 * a22 - a12 * a21;
+  if (!(Math.abs(det) > 1e-14 * rowOne * rowTwo)) {
+    // Singular pivot: shift the diagonal a little so the factorization can go on; the caller
+    // sees the row in perturbedPivots and its Newton step is then only approximate.
+    perturbedPivots.push(pivot);
+    // Each row's shift is relative to that row's own size.
+    const shiftOne = 1e-10 * (rowOne > 0 ? rowOne : scale);
+    const shiftTwo = 1e-10 * (rowTwo > 0 ? rowTwo : scale);
+    a11 += a11 >= 0 ? shiftOne : -shiftOne;
+    a22 += a22 >= 0 ? shiftTwo : -shiftTwo;
+    det = a11 * a22 - a12 * a21;
+    if (det === 0) {
+      a11 += shiftOne;
+      a22 += shiftTwo;
+      det = a11 * a22 - a12 * a21;
+    }
+    front[p] = a11;
+    front[p + lead + 1] = a22;
+  }
+  const q = 4 * pivot;
+  pivotInverse[q] = a22 / det;
+  pivotInverse[q + 1] = -a12 / det;
+  pivotInverse[q + 2] = -a21 / det;
+  pivotInverse[q + 3] = a11 / det;
 }
 
 /**
@@ -295,121 +817,65 @@ export function solveFactored(
   factorization: BlockLuFactorization,
   rhs: Float64Array,
 ): Float64Array {
-  const { structure, values: a, pivotInverse } = factorization;
-  const { order, laterStart, laterNeighbours, lowerBlock, upperBlock } = structure;
-  const n = structure.size;
   const x = Float64Array.from(rhs);
-  // Forward: for each pivot in order, subtract L_s,pivot * y_pivot from later rows.
-  for (let step = 0; step < n; step++) {
-    const pivot = order[step] as number;
-    const y1 = x[2 * pivot] as number;
-    const y2 = x[2 * pivot + 1] as number;
-    const start = laterStart[step] as number;
-    const end = laterStart[step + 1] as number;
-    for (let i = start; i < end; i++) {
-      const s = laterNeighbours[i] as number;
-      const l = 4 * (lowerBlock[i] as number);
-      x[2 * s] = (x[2 * s] as number) - ((a[l] as number) * y1 + (a[l + 1] as number) * y2);
-      x[2 * s + 1] =
-        (x[2 * s + 1] as number) - ((a[l + 2] as number) * y1 + (a[l + 3] as number) * y2);
-    }
-  }
-  // Backward: x_pivot = inv(U_pivot,pivot) (y_pivot - sum_t U_pivot,t x_t), in reverse order.
-  for (let step = n - 1; step >= 0; step--) {
-    const pivot = order[step] as number;
-    let r1 = x[2 * pivot] as number;
-    let r2 = x[2 * pivot + 1] as number;
-    const start = laterStart[step] as number;
-    const end = laterStart[step + 1] as number;
-    for (let i = start; i < end; i++) {
-      const t = laterNeighbours[i] as number;
-      const u = 4 * (upperBlock[i] as number);
-      const xt1 = x[2 * t] as number;
-      const xt2 = x[2 * t + 1] as number;
-      r1 -= (a[u] as number) * xt1 + (a[u + 1] as number) * xt2;
-      r2 -= (a[u + 2] as number) * xt1 + (a[u + 3] as number) * xt2;
-    }
-    const p = 4 * pivot;
-    x[2 * pivot] = (pivotInverse[p] as number) * r1 + (pivotInverse[p + 1] as number) * r2;
-    x[2 * pivot + 1] = (pivotInverse[p + 2] as number) * r1 + (pivotInverse[p + 3] as number) * r2;
-  }
+  solveFactoredInPlace(factorization, x);
   return x;
 }
 
-/** a[t..t+3] -= a[l..l+3] * a[u..u+3], 2 x 2 blocks stored row-major. */
-function subtractProduct(a: Float64Array, l: number, u: number, t: number): void {
-  const l11 = a[l] as number;
-  const l12 = a[l + 1] as number;
-  const l21 = a[l + 2] as number;
-  const l22 = a[l + 3] as number;
-  const u11 = a[u] as number;
-  const u12 = a[u + 1] as number;
-  const u21 = a[u + 2] as number;
-  const u22 = a[u + 3] as number;
-  a[t] = (a[t] as number) - (l11 * u11 + l12 * u21);
-  a[t + 1] = (a[t + 1] as number) - (l11 * u12 + l12 * u22);
-  a[t + 2] = (a[t + 2] as number) - (l21 * u11 + l22 * u21);
-  a[t + 3] = (a[t + 3] as number) - (l21 * u12 + l22 * u22);
-}
-
-/** A binary min-heap of (key, index) pairs ordered by key, then index. */
-class MinHeap {
-  private keys: number[] = [];
-  private items: number[] = [];
-
-  push(key: number, item: number): void {
-    const keys = this.keys;
-    const items = this.items;
-    let i = keys.length;
-    keys.push(key);
-    items.push(item);
-    while (i > 0) {
-      const parent = (i - 1) >> 1;
-      if (!this.less(i, parent)) break;
-      this.swap(i, parent);
-      i = parent;
-    }
-  }
-
-  pop(): [number, number] {
-    const keys = this.keys;
-    const items = this.items;
-    if (keys.length === 0) throw new Error("MinHeap.pop on an empty heap");
-    const top: [number, number] = [keys[0] as number, items[0] as number];
-    const lastKey = keys.pop() as number;
-    const lastItem = items.pop() as number;
-    if (keys.length > 0) {
-      keys[0] = lastKey;
-      items[0] = lastItem;
-      let i = 0;
-      for (;;) {
-        const left = 2 * i + 1;
-        const right = left + 1;
-        let smallest = i;
-        if (left < keys.length && this.less(left, smallest)) smallest = left;
-        if (right < keys.length && this.less(right, smallest)) smallest = right;
-        if (smallest === i) break;
-        this.swap(i, smallest);
-        i = smallest;
+/** Solve A x = b in place: `x` holds b on entry and the solution on return. */
+export function solveFactoredInPlace(factorization: BlockLuFactorization, x: Float64Array): void {
+  const { structure, lower, upper, pivotInverse } = factorization;
+  const { supernodeCount, supernodeStart, frontStart, frontNodes, panelStart } = structure;
+  // Forward: L y = b, column by column of each supernode's panel.
+  for (let s = 0; s < supernodeCount; s++) {
+    const width = (supernodeStart[s + 1] as number) - (supernodeStart[s] as number);
+    const nodes = frontStart[s] as number;
+    const m = (frontStart[s + 1] as number) - nodes;
+    const lead = 2 * m;
+    const panel = panelStart[s] as number;
+    for (let k = 0; k < width; k++) {
+      const pivot = frontNodes[nodes + k] as number;
+      const y1 = x[2 * pivot] as number;
+      const y2 = x[2 * pivot + 1] as number;
+      if (y1 === 0 && y2 === 0) continue;
+      const columnOne = panel + 2 * k * lead;
+      const columnTwo = columnOne + lead;
+      for (let i = k + 1; i < m; i++) {
+        const row = frontNodes[nodes + i] as number;
+        x[2 * row] =
+          (x[2 * row] as number) -
+          ((lower[columnOne + 2 * i] as number) * y1 + (lower[columnTwo + 2 * i] as number) * y2);
+        x[2 * row + 1] =
+          (x[2 * row + 1] as number) -
+          ((lower[columnOne + 2 * i + 1] as number) * y1 +
+            (lower[columnTwo + 2 * i + 1] as number) * y2);
       }
     }
-    return top;
   }
-
-  private less(a: number, b: number): boolean {
-    const ka = this.keys[a] as number;
-    const kb = this.keys[b] as number;
-    return ka < kb || (ka === kb && (this.items[a] as number) < (this.items[b] as number));
-  }
-
-  private swap(a: number, b: number): void {
-    const keys = this.keys;
-    const items = this.items;
-    const k = keys[a] as number;
-    keys[a] = keys[b] as number;
-    keys[b] = k;
-    const t = items[a] as number;
-    items[a] = items[b] as number;
-    items[b] = t;
+  // Backward: x_k = inv(U_kk) (y_k - sum_j U_kj x_j), supernodes and pivots in reverse.
+  for (let s = supernodeCount - 1; s >= 0; s--) {
+    const width = (supernodeStart[s + 1] as number) - (supernodeStart[s] as number);
+    const nodes = frontStart[s] as number;
+    const m = (frontStart[s + 1] as number) - nodes;
+    const lead = 2 * m;
+    const panel = panelStart[s] as number;
+    for (let k = width - 1; k >= 0; k--) {
+      const pivot = frontNodes[nodes + k] as number;
+      let r1 = x[2 * pivot] as number;
+      let r2 = x[2 * pivot + 1] as number;
+      const rowOne = panel + 2 * k * lead;
+      const rowTwo = rowOne + lead;
+      for (let j = k + 1; j < m; j++) {
+        const column = frontNodes[nodes + j] as number;
+        const x1 = x[2 * column] as number;
+        const x2 = x[2 * column + 1] as number;
+        r1 -= (upper[rowOne + 2 * j] as number) * x1 + (upper[rowOne + 2 * j + 1] as number) * x2;
+        r2 -= (upper[rowTwo + 2 * j] as number) * x1 + (upper[rowTwo + 2 * j + 1] as number) * x2;
+      }
+      const p = 4 * pivot;
+      x[2 * pivot] = (pivotInverse[p] as number) * r1 + (pivotInverse[p + 1] as number) * r2;
+      x[2 * pivot + 1] =
+        (pivotInverse[p + 2] as number) * r1 + (pivotInverse[p + 3] as number) * r2;
+    }
   }
 }
