@@ -42,7 +42,7 @@
  * @module
  */
 import type { Gas } from "../gas/gas-types.js";
-import type { PengRobinsonValues } from "../gas/peng-robinson.js";
+import { emptyPengRobinsonValues, type PengRobinsonValues } from "../gas/peng-robinson.js";
 import {
   emptyThermoState,
   gasState,
@@ -114,6 +114,10 @@ interface Entrance {
 export class HeatTransferScratch {
   readonly integrator = new DormandPrinceIntegrator(DIMENSION, 2);
   readonly state: ThermoState = emptyThermoState();
+  /** Working record of the equation of state (no allocation per property call). */
+  readonly equationOfState: PengRobinsonValues = emptyPengRobinsonValues();
+  /** Working record of the arrival-temperature inversions. */
+  readonly arrivalState: ThermoState = emptyThermoState();
   readonly entrance: Entrance = {
     pressure: 0,
     temperature: 0,
@@ -188,7 +192,7 @@ export class HeatTransferScratch {
    */
   pointSlope(pressure: number, temperature: number, flux: number, out: Float64Array): boolean {
     if (!(pressure > 0 && temperature > 0)) return false;
-    const s = gasState(this.gas as Gas, pressure, temperature, this.state);
+    const s = gasState(this.gas as Gas, pressure, temperature, this.state, this.equationOfState);
     this.evaluations++;
     const rho = s.density;
     const v = flux / rho;
@@ -237,7 +241,7 @@ export class HeatTransferScratch {
    * `enthalpySlope` (d/dp, d/dT, d/dG).
    */
   stagnationEnthalpy(pressure: number, temperature: number, flux: number): number {
-    const s = gasState(this.gas as Gas, pressure, temperature, this.state);
+    const s = gasState(this.gas as Gas, pressure, temperature, this.state, this.equationOfState);
     const v = flux / s.density;
     const v2 = v * v;
     this.enthalpySlope[0] = s.enthalpyPressureSlope - (v2 * s.densityPressureSlope) / s.density;
@@ -302,7 +306,7 @@ export class HeatTransferScratch {
 
   /** Inlet pressure of the isentropic form from a plenum (p0, T0) with its own exponent and Z R. */
   private entrancePressureAt(flux: number, p0: number, t0: number): number {
-    const plenum = gasState(this.gas as Gas, p0, t0, this.probeState);
+    const plenum = gasState(this.gas as Gas, p0, t0, this.probeState, this.equationOfState);
     const kappa = (plenum.density * plenum.soundSpeed * plenum.soundSpeed) / p0;
     const gasConstant = p0 / (plenum.density * t0);
     return isentropicEntrance(flux, p0, t0, kappa, gasConstant, this.probeEntrance)
@@ -391,7 +395,7 @@ export class HeatTransferScratch {
     this.runs++;
     const p1 = this.inletPressure;
     const t1 = this.inletTemperature;
-    const s = gasState(gas, p1, t1, this.state);
+    const s = gasState(gas, p1, t1, this.state, this.equationOfState);
     const v = flux / s.density;
     const frictionDrop = 0.5 * this.frictionPerLength * length * flux * v;
     const hydrostatic = s.density * STANDARD_GRAVITY * Math.abs(this.slope) * length;
@@ -624,7 +628,7 @@ export function evaluateHeatTransferPipe(
   scratch.heatPerLength = exchange.heatTransferPerLength;
   scratch.surroundingTemperature = exchange.surroundingTemperature;
   scratch.slope = rise / length;
-  const plenum = gasState(gas, p0, t0, scratch.state);
+  const plenum = gasState(gas, p0, t0, scratch.state, scratch.equationOfState);
   const kappa = (plenum.density * plenum.soundSpeed * plenum.soundSpeed) / p0;
   const gasConstant = p0 / (plenum.density * t0);
   const h0 = plenum.enthalpy;
@@ -802,10 +806,20 @@ export function evaluateHeatTransferPipe(
     h2g * fluxPerPd -
     (h1p * (p1s[0] as number) + h1t * (t1s[0] as number) + h1g) * fluxPerPd;
   if (exchange.heatTransferPerLength > 0) {
-    setArrival(gas, h0 + h2 - h1, pd, scratch.state, out, dP0, dT0, dPd);
+    setArrival(gas, h0 + h2 - h1, pd, scratch.state, out, dP0, dT0, dPd, scratch.equationOfState);
   } else {
     // No heat exchange: h0_out = h0_in - g rise exactly (the integration's error stays out).
-    setArrival(gas, h0 - STANDARD_GRAVITY * rise, pd, scratch.state, out, dh0dp0, dh0dT0, 0);
+    setArrival(
+      gas,
+      h0 - STANDARD_GRAVITY * rise,
+      pd,
+      scratch.state,
+      out,
+      dh0dp0,
+      dh0dT0,
+      0,
+      scratch.equationOfState,
+    );
   }
 }
 
@@ -1005,6 +1019,8 @@ function setChoked(
     gas,
     h0 + run.heat / out.massFlow - STANDARD_GRAVITY * rise,
     pd,
+    scratch.arrivalState,
+    scratch.equationOfState,
   );
   out.arrivalTemperature = arrival;
   // One-sided differences in p0 and T0 of converged capacity solves, warm-started at this one.
@@ -1020,7 +1036,7 @@ function setChoked(
   out.dMassFlowdDownstreamPressure = 0;
   out.dArrivalTemperaturedDownstreamPressure = 0;
   if (gas.equationOfState !== undefined) {
-    const s = gasState(gas, pd, arrival, scratch.state);
+    const s = gasState(gas, pd, arrival, scratch.state, scratch.equationOfState);
     out.dArrivalTemperaturedDownstreamPressure = -s.enthalpyPressureSlope / s.specificHeatCp;
   }
 }
@@ -1042,7 +1058,7 @@ function capacityAt(
   const context = scratch.context;
   const gas = context.gas;
   const length = pipe.length;
-  const plenum = gasState(gas, p0, t0, scratch.state);
+  const plenum = gasState(gas, p0, t0, scratch.state, scratch.equationOfState);
   const kappa = (plenum.density * plenum.soundSpeed * plenum.soundSpeed) / p0;
   const gasConstant = p0 / (plenum.density * t0);
   const h0 = plenum.enthalpy;
@@ -1069,6 +1085,8 @@ function capacityAt(
     gas,
     h0 + run.heat / massFlow - STANDARD_GRAVITY * scratch.slope * length,
     pd,
+    scratch.arrivalState,
+    scratch.equationOfState,
   );
 }
 
@@ -1156,7 +1174,7 @@ export function heatTransferOutlet(
   scratch.heatPerLength = exchange.heatTransferPerLength;
   scratch.surroundingTemperature = exchange.surroundingTemperature;
   scratch.slope = rise / pipe.length;
-  const plenum = gasState(thermoGas, p0, t0, scratch.state);
+  const plenum = gasState(thermoGas, p0, t0, scratch.state, scratch.equationOfState);
   const kappa = (plenum.density * plenum.soundSpeed * plenum.soundSpeed) / p0;
   const gasConstant = p0 / (plenum.density * t0);
   const h0 = plenum.enthalpy;
@@ -1188,6 +1206,8 @@ export function heatTransferOutlet(
     thermoGas,
     h0 + run.heat / massFlow - STANDARD_GRAVITY * rise,
     run.pressure,
+    scratch.arrivalState,
+    scratch.equationOfState,
   );
   return true;
 }
