@@ -59,6 +59,8 @@ export interface PipeGas {
   heatCapacityRatio: number;
   /** mu(T) [Pa s] */
   viscosity: (temperature: number) => number;
+  /** d ln mu / dT [1/K], the closed-form slope of the same law (gasViscosityLogSlope). */
+  viscosityLogSlope: (temperature: number) => number;
   /** The gas itself: the heat-transfer model takes its properties through src/gas/thermo.ts. */
   gas: Gas;
 }
@@ -111,7 +113,7 @@ export class PipeFlowEvaluation {
     value: 0,
     slope: 0,
     factor: 0,
-    colebrook: { factor: 0, logSlope: 0 },
+    colebrook: { factor: 0, logSlope: 0, inverseRoot: Number.NaN },
   };
 }
 
@@ -159,12 +161,13 @@ export function frictionParameter(
 // F(M) = fD L*/D (Fanno). Sources and equations: docs/model.md and src/physics/isentropic.ts,
 // src/physics/fanno.ts. Derivatives by hand, checked against differences in the tests.
 
+/**
+ * Phi = sqrt(gamma) M (1 + (gamma-1)/2 M^2)^(-(gamma+1)/(2(gamma-1))), the power taken as
+ * exp of a log1p (a general power costs about twice as much and this runs in every iteration).
+ */
 function massFluxParameterOf(mach: number, gamma: number): number {
-  return (
-    mach *
-    Math.sqrt(gamma) *
-    (1 + 0.5 * (gamma - 1) * mach * mach) ** (-(gamma + 1) / (2 * (gamma - 1)))
-  );
+  const exponent = -(gamma + 1) / (2 * (gamma - 1));
+  return mach * Math.sqrt(gamma) * Math.exp(exponent * Math.log1p(0.5 * (gamma - 1) * mach * mach));
 }
 /** d ln Phi / dM = 1/M - ((gamma+1)/2) M / (1 + (gamma-1)/2 M^2) */
 function logMassFluxSlope(mach: number, gamma: number): number {
@@ -188,7 +191,7 @@ function logFannoPressureSlope(mach: number, gamma: number): number {
 }
 /** dF/dM = -4 (1 - M^2) / (gamma M^3 (2 + (gamma-1) M^2)) */
 function fannoSlope(mach: number, gamma: number): number {
-  return (-4 * (1 - mach * mach)) / (gamma * mach ** 3 * (2 + (gamma - 1) * mach * mach));
+  return (-4 * (1 - mach * mach)) / (gamma * mach * mach * mach * (2 + (gamma - 1) * mach * mach));
 }
 
 /**
@@ -256,14 +259,6 @@ export function evaluatePipeFlow(
   return out;
 }
 
-/** Relative temperature step of the central difference for d ln mu / dT. */
-const VISCOSITY_STEP = 1e-6;
-
-function viscositySlope(gas: PipeGas, temperature: number, viscosity: number): number {
-  const h = VISCOSITY_STEP * temperature;
-  return (gas.viscosity(temperature + h) - gas.viscosity(temperature - h)) / (2 * h) / viscosity;
-}
-
 /** An exit Mach number above this (adiabatic) counts as "near choking": the capacity is solved. */
 const NEAR_CHOKE_MACH = 0.999;
 
@@ -288,7 +283,7 @@ function evaluateAdiabatic(
   const r = gas.specificGasConstant;
   const area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
   const mu = gas.viscosity(t0);
-  const muSlope = viscositySlope(gas, t0, mu); // d ln mu / dT
+  const muSlope = gas.viscosityLogSlope(t0); // d ln mu / dT
   const sqrtRT = Math.sqrt(r * t0);
   const fluxScale = p0 / sqrtRT; // G = Phi * fluxScale
   const reynoldsScale = (fluxScale * pipe.diameter) / mu; // Re = Phi * reynoldsScale
@@ -683,7 +678,7 @@ function evaluateIsothermal(
   const r = gas.specificGasConstant;
   const area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
   const mu = gas.viscosity(t);
-  const muSlope = viscositySlope(gas, t, mu);
+  const muSlope = gas.viscosityLogSlope(t);
   const rt = r * t;
   const sqrtRT = Math.sqrt(rt);
   const reynoldsPerFlux = pipe.diameter / mu;

@@ -29,7 +29,6 @@
  * Edge flows are functions of the node states (src/physics/pipe-flow.ts): the upstream end is the
  * one at higher pressure; a choked edge's flow does not depend on its downstream pressure.
  */
-import { gasViscosity } from "../gas/gas.js";
 import type { PengRobinsonValues } from "../gas/peng-robinson.js";
 import { emptyPengRobinsonValues } from "../gas/peng-robinson.js";
 import {
@@ -40,6 +39,7 @@ import {
 } from "../gas/thermo.js";
 import type { NetworkModel } from "../model/build-network.js";
 import { type EdgeElement, evaluateEdgeFlow, flowsForward } from "../physics/edge-flow.js";
+import { pipeGas } from "../physics/pipe.js";
 import { isCreepingFlow, PipeFlowEvaluation, type PipeGas } from "../physics/pipe-flow.js";
 import type { BlockLuStructure } from "./sparse-block-lu.js";
 import { analyzeBlockPattern } from "./sparse-block-lu.js";
@@ -142,12 +142,7 @@ export interface SystemEvaluation {
 export function createNetworkSystem(model: NetworkModel): NetworkSystem {
   const doc = model.document;
   const gasData = doc.gas;
-  const gas: PipeGas = {
-    specificGasConstant: gasData.specificGasConstant,
-    heatCapacityRatio: gasData.heatCapacityRatio,
-    viscosity: (temperature: number) => gasViscosity(gasData, temperature),
-    gas: gasData,
-  };
+  const gas = pipeGas(gasData);
   const elevations = new Map(doc.nodes.map((node) => [node.id, node.elevation]));
   const elevationOf = (id: string): number => elevations.get(id) ?? 0;
   const elements: EdgeElement[] = doc.edges.map(
