@@ -97,6 +97,8 @@ export class PipeFlowEvaluation {
   /** Warm start for the next call on the same pipe: the last inlet Mach numbers found. */
   lastInletMach = Number.NaN;
   lastCapacityInletMach = Number.NaN;
+  /** Adiabatic model: warm start of the Fanno exit offset M2 - M1, the last one found. */
+  lastExitOffset = Number.NaN;
   /** False when the capacity was not needed and not computed (then `capacity` is NaN). */
   capacityKnown = false;
   /** Heat-transfer model: heat flow into the gas over the pipe [W] (negative: the gas loses heat). */
@@ -371,10 +373,10 @@ function evaluateAdiabatic(
     return;
   }
 
-  // Subsonic: final state at the converged M1 (adiabaticInletMach left M2 and X in out).
-  const reynolds = massFluxParameterOf(mach, gamma) * reynoldsScale;
-  frictionParameter(pipe, reynolds, friction);
+  // Subsonic: final state at the converged M1 (adiabaticInletMach left M2 in out and the
+  // friction parameter at M1 in out.friction).
   const phi = massFluxParameterOf(mach, gamma);
+  const reynolds = phi * reynoldsScale;
   out.lastInletMach = mach;
   out.choked = false;
   out.massFlow = phi * fluxScale * area;
@@ -408,7 +410,8 @@ function evaluateAdiabatic(
 /**
  * Inlet Mach number M1 in (0, upper) at which the exit static pressure is pd, by safeguarded
  * Newton on g(M1) = ln(p_exit/p0) - ln(pd/p0). Leaves the exit Mach number in out.outletMach
- * (1 when the root is not inside the bracket: the pipe is at or beyond its capacity).
+ * (1 when the root is not inside the bracket: the pipe is at or beyond its capacity) and the
+ * friction parameter at the returned M1 in out.friction.
  */
 function adiabaticInletMach(
   pipe: PipeGeometry,
@@ -428,19 +431,27 @@ function adiabaticInletMach(
     mach = Math.min(0.9 * hi, Math.sqrt((-2 * targetLogRatio) / (gamma * (1 + friction.value))));
   }
   let exitMach = 1;
+  // Start of the exit offset's Newton iteration: the last one found on this pipe, then the
+  // first-order prediction of each Newton step of M1 (NaN: from the Fanno inversion).
+  let offsetGuess = out.lastExitOffset;
+  let frictionAtMach = false;
   for (let iteration = 0; iteration < 100; iteration++) {
     const reynolds = massFluxParameterOf(mach, gamma) * reynoldsScale;
     frictionParameter(pipe, reynolds, friction);
+    frictionAtMach = true;
     const remaining = fannoParameter(mach, gamma) - friction.value;
     if (!(remaining > 0)) {
       // Beyond this pipe's capacity at this M1: the root lies below.
       hi = mach;
       mach = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
+      frictionAtMach = false;
+      offsetGuess = Number.NaN;
       exitMach = 1;
       if (hi - lo <= 1e-15 * hi) break;
       continue;
     }
-    const offset = fannoExitOffset(mach, friction.value, gamma, remaining);
+    const offset = fannoExitOffset(mach, friction.value, gamma, remaining, offsetGuess);
+    out.lastExitOffset = offset;
     exitMach = mach + offset;
     const logRatio = logPressureRatioOfOffset(mach, offset, gamma);
     // Newton in ln M1 on phi = ln(-ln r) - ln(-ln(pd/p0)): 1 - r grows as a power of M1 (M1^2 in
@@ -462,10 +473,19 @@ function adiabaticInletMach(
       logFannoPressureSlope(exitMach, gamma) * dExitMach;
     const phiSlope = (mach * slope) / logRatio; // d phi / d ln M1 > 0
     let next = mach * Math.exp(-phi / phiSlope);
-    if (!(next > lo && next < hi)) next = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
+    // The offset M2 - M1 moves by (dM2/dM1 - 1) dM1 to first order.
+    offsetGuess = offset + (dExitMach - 1) * (next - mach);
+    if (!(next > lo && next < hi)) {
+      next = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
+      offsetGuess = Number.NaN;
+    }
     const change = Math.abs(next - mach);
     mach = next;
+    frictionAtMach = false;
     if (change <= 1e-13 * mach) break;
+  }
+  if (!frictionAtMach) {
+    frictionParameter(pipe, massFluxParameterOf(mach, gamma) * reynoldsScale, friction);
   }
   out.outletMach = exitMach;
   return mach;
@@ -478,18 +498,31 @@ function adiabaticInletMach(
  * form free of cancellation:
  *   DF = d (2a + d) / (gamma a^2 b^2) - ((gamma+1)/gamma) log1p(d/a)
  *        + ((gamma+1)/(2 gamma)) log1p((gamma-1) d (2a + d) / (2 + (gamma-1) a^2)),  b = a + d.
+ * DF is increasing and concave in d (F is convex on the subsonic branch) with DF(0) = 0, so
+ * DF(d) <= -F'(a) d and the root is at least X / -F'(a): a lower bound, from which Newton rises
+ * monotonically to the root, and where a step from above the root is caught. It starts from
+ * `guess` when that lies in (0, 1 - a) (a warm start: the last offset of this pipe, or its
+ * prediction), otherwise from M2 by the Fanno inversion; either way it stops on the same tests,
+ * so the start changes the result by no more than they allow.
  */
 function fannoExitOffset(
   inletMach: number,
   frictionValue: number,
   gamma: number,
   remaining: number,
+  guess: number,
 ): number {
   const a = inletMach;
   const c = (gamma + 1) / (2 * gamma);
-  let delta = Math.max(machFromFannoParameter(remaining, gamma, "subsonic") - a, 0);
-  if (delta === 0) delta = -frictionValue / fannoSlope(a, gamma);
-  let lo = 0;
+  const lower = -frictionValue / fannoSlope(a, gamma);
+  let delta: number;
+  if (guess > 0 && guess < 1 - a) {
+    delta = Math.max(guess, lower);
+  } else {
+    delta = Math.max(machFromFannoParameter(remaining, gamma, "subsonic") - a, 0);
+    if (delta === 0) delta = lower;
+  }
+  let lo = lower < 1 - a ? lower : 0;
   let hi = 1 - a;
   for (let iteration = 0; iteration < 30; iteration++) {
     const b = a + delta;
@@ -503,7 +536,7 @@ function fannoExitOffset(
     if (residual > 0) hi = delta;
     else lo = delta;
     let next = delta - residual / -fannoSlope(b, gamma);
-    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    if (!(next > lo && next < hi)) next = next <= lo ? lo : 0.5 * (lo + hi);
     const change = Math.abs(next - delta);
     delta = next;
     if (change <= 1e-15 * delta) break;

@@ -283,6 +283,11 @@ describe("sparse solve of network Jacobians against a dense solve", () => {
     // mass flux by one unit of rounding (exp of log1p for the power) leaves them 1.4e-8 apart,
     // well inside the 3e-4 that the condition number allows.
     "tiny-flow-through-header.json",
+    // Condition number 5.3e5 (ml-matrix SVD of its 8 x 8 first-guess Jacobian): a backward
+    // stable solve is good to about 5.3e5 x 1.1e-16 = 6e-11 relative, above the 1e-12 asked of
+    // the well-conditioned ones; the two solves were 1.5e-13 apart before the mass flux and the
+    // Fanno exit offset changed in the last units of rounding (issue 8), 3.6e-12 after.
+    "near-choke-38-edges.json",
   ]);
   for (const [name, document] of networks) {
     it(`agrees with a dense solve on ${name} (1e-12 relative, or in backward error if ill-conditioned)`, () => {
