@@ -299,24 +299,15 @@ function evaluateAdiabatic(
   out.capacityKnown = false;
 
   const targetLogRatio = pd > 0 ? Math.log(pd / p0) : Number.NEGATIVE_INFINITY;
+  // The capacity, when solved (see solveAdiabaticCapacity): its inlet Mach number and the log
+  // of its exit pressure ratio.
   let capacityMach = Number.NaN;
   let logChokedExitRatio = Number.NaN;
-  const solveCapacity = () => {
-    capacityMach = adiabaticCapacityMach(
-      pipe,
-      gamma,
-      reynoldsScale,
-      out.lastCapacityInletMach,
-      friction,
-    );
-    out.lastCapacityInletMach = capacityMach;
-    out.capacity = massFluxParameterOf(capacityMach, gamma) * fluxScale * area;
-    out.capacityKnown = true;
-    logChokedExitRatio =
-      logIsentropicPressure(capacityMach, gamma) - logFannoPressure(capacityMach, gamma);
-  };
   // Known choked last time, or no flow: the capacity decides, solve it first.
-  if (needCapacity || out.choked || pd >= p0) solveCapacity();
+  if (needCapacity || out.choked || pd >= p0) {
+    logChokedExitRatio = solveAdiabaticCapacity(pipe, gamma, reynoldsScale, fluxScale, area, out);
+    capacityMach = out.lastCapacityInletMach;
+  }
   if (setCreepingFlow(pipe, gas, p0, t0, pd, drop, mu, muSlope, area, p0, 1, out)) return;
 
   // Subsonic exit: g(M1) = ln(p_exit/p0) - ln(pd/p0) = 0 on (0, M1c). Without the capacity the
@@ -338,7 +329,8 @@ function evaluateAdiabatic(
     exitMach = out.outletMach;
   }
   if (!out.capacityKnown && !(exitMach < NEAR_CHOKE_MACH)) {
-    solveCapacity();
+    logChokedExitRatio = solveAdiabaticCapacity(pipe, gamma, reynoldsScale, fluxScale, area, out);
+    capacityMach = out.lastCapacityInletMach;
     if (targetLogRatio > logChokedExitRatio) {
       mach = adiabaticInletMach(pipe, gamma, reynoldsScale, targetLogRatio, capacityMach, out);
       exitMach = out.outletMach;
@@ -405,6 +397,35 @@ function evaluateAdiabatic(
   out.dMassFlowdUpstreamPressure = massFlow * (1 / p0 - (phiLogSlope * gP0) / gMach);
   out.dMassFlowdUpstreamTemperature = massFlow * (-0.5 / t0 - (phiLogSlope * gT0) / gMach);
   out.dMassFlowdDownstreamPressure = massFlow * (-(phiLogSlope * gPd) / gMach);
+}
+
+/**
+ * Solve an adiabatic pipe's capacity into `out` (its inlet Mach number into
+ * lastCapacityInletMach, which also warm-starts the next solve; the mass flow into capacity) and
+ * return ln(p_exit/p0) at it. `fluxScale` is p0 / sqrt(R T0) [kg/(s m2)] (G = Phi fluxScale),
+ * `area` the pipe's cross-section [m2].
+ * A function rather than a closure of evaluateAdiabatic, so that no context is allocated per
+ * call.
+ */
+function solveAdiabaticCapacity(
+  pipe: PipeGeometry,
+  gamma: number,
+  reynoldsScale: number,
+  fluxScale: number,
+  area: number,
+  out: PipeFlowEvaluation,
+): number {
+  const capacityMach = adiabaticCapacityMach(
+    pipe,
+    gamma,
+    reynoldsScale,
+    out.lastCapacityInletMach,
+    out.friction,
+  );
+  out.lastCapacityInletMach = capacityMach;
+  out.capacity = massFluxParameterOf(capacityMach, gamma) * fluxScale * area;
+  out.capacityKnown = true;
+  return logIsentropicPressure(capacityMach, gamma) - logFannoPressure(capacityMach, gamma);
 }
 
 /**
