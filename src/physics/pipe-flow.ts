@@ -64,6 +64,8 @@ export interface PipeGas {
   heatCapacityRatio: number;
   /** mu(T) [Pa s] */
   viscosity: (temperature: number) => number;
+  /** d ln mu / dT [1/K], the closed-form slope of the same law (gasViscosityLogSlope). */
+  viscosityLogSlope: (temperature: number) => number;
   /** The gas itself: the heat-transfer model takes its properties through src/gas/thermo.ts. */
   gas: Gas;
 }
@@ -100,6 +102,8 @@ export class PipeFlowEvaluation {
   /** Warm start for the next call on the same pipe: the last inlet Mach numbers found. */
   lastInletMach = Number.NaN;
   lastCapacityInletMach = Number.NaN;
+  /** Adiabatic model: warm start of the Fanno exit offset M2 - M1, the last one found. */
+  lastExitOffset = Number.NaN;
   /** False when the capacity was not needed and not computed (then `capacity` is NaN). */
   capacityKnown = false;
   /** Heat-transfer model: heat flow into the gas over the pipe [W] (negative: the gas loses heat). */
@@ -118,7 +122,7 @@ export class PipeFlowEvaluation {
     value: 0,
     slope: 0,
     factor: 0,
-    colebrook: { factor: 0, logSlope: 0 },
+    colebrook: { factor: 0, logSlope: 0, inverseRoot: Number.NaN },
   };
 }
 
@@ -166,12 +170,13 @@ export function frictionParameter(
 // F(M) = fD L*/D (Fanno). Sources and equations: docs/model.md and src/physics/isentropic.ts,
 // src/physics/fanno.ts. Derivatives by hand, checked against differences in the tests.
 
+/**
+ * Phi = sqrt(gamma) M (1 + (gamma-1)/2 M^2)^(-(gamma+1)/(2(gamma-1))), the power taken as
+ * exp of a log1p (a general power costs about twice as much and this runs in every iteration).
+ */
 function massFluxParameterOf(mach: number, gamma: number): number {
-  return (
-    mach *
-    Math.sqrt(gamma) *
-    (1 + 0.5 * (gamma - 1) * mach * mach) ** (-(gamma + 1) / (2 * (gamma - 1)))
-  );
+  const exponent = -(gamma + 1) / (2 * (gamma - 1));
+  return mach * Math.sqrt(gamma) * Math.exp(exponent * Math.log1p(0.5 * (gamma - 1) * mach * mach));
 }
 /** d ln Phi / dM = 1/M - ((gamma+1)/2) M / (1 + (gamma-1)/2 M^2) */
 function logMassFluxSlope(mach: number, gamma: number): number {
@@ -195,7 +200,7 @@ function logFannoPressureSlope(mach: number, gamma: number): number {
 }
 /** dF/dM = -4 (1 - M^2) / (gamma M^3 (2 + (gamma-1) M^2)) */
 function fannoSlope(mach: number, gamma: number): number {
-  return (-4 * (1 - mach * mach)) / (gamma * mach ** 3 * (2 + (gamma - 1) * mach * mach));
+  return (-4 * (1 - mach * mach)) / (gamma * mach * mach * mach * (2 + (gamma - 1) * mach * mach));
 }
 
 /**
@@ -287,14 +292,6 @@ export function evaluatePipeFlow(
   return out;
 }
 
-/** Relative temperature step of the central difference for d ln mu / dT. */
-const VISCOSITY_STEP = 1e-6;
-
-function viscositySlope(gas: PipeGas, temperature: number, viscosity: number): number {
-  const h = VISCOSITY_STEP * temperature;
-  return (gas.viscosity(temperature + h) - gas.viscosity(temperature - h)) / (2 * h) / viscosity;
-}
-
 /** An exit Mach number above this (adiabatic) counts as "near choking": the capacity is solved. */
 const NEAR_CHOKE_MACH = 0.999;
 
@@ -319,7 +316,7 @@ function evaluateAdiabatic(
   const r = gas.specificGasConstant;
   const area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
   const mu = gas.viscosity(t0);
-  const muSlope = viscositySlope(gas, t0, mu); // d ln mu / dT
+  const muSlope = gas.viscosityLogSlope(t0); // d ln mu / dT
   const sqrtRT = Math.sqrt(r * t0);
   const fluxScale = p0 / sqrtRT; // G = Phi * fluxScale
   const reynoldsScale = (fluxScale * pipe.diameter) / mu; // Re = Phi * reynoldsScale
@@ -333,24 +330,15 @@ function evaluateAdiabatic(
   out.capacityKnown = false;
 
   const targetLogRatio = pd > 0 ? Math.log(pd / p0) : Number.NEGATIVE_INFINITY;
+  // The capacity, when solved (see solveAdiabaticCapacity): its inlet Mach number and the log
+  // of its exit pressure ratio.
   let capacityMach = Number.NaN;
   let logChokedExitRatio = Number.NaN;
-  const solveCapacity = () => {
-    capacityMach = adiabaticCapacityMach(
-      pipe,
-      gamma,
-      reynoldsScale,
-      out.lastCapacityInletMach,
-      friction,
-    );
-    out.lastCapacityInletMach = capacityMach;
-    out.capacity = massFluxParameterOf(capacityMach, gamma) * fluxScale * area;
-    out.capacityKnown = true;
-    logChokedExitRatio =
-      logIsentropicPressure(capacityMach, gamma) - logFannoPressure(capacityMach, gamma);
-  };
   // Known choked last time, or no flow: the capacity decides, solve it first.
-  if (needCapacity || out.choked || pd >= p0) solveCapacity();
+  if (needCapacity || out.choked || pd >= p0) {
+    logChokedExitRatio = solveAdiabaticCapacity(pipe, gamma, reynoldsScale, fluxScale, area, out);
+    capacityMach = out.lastCapacityInletMach;
+  }
   if (setCreepingFlow(pipe, gas, p0, t0, pd, drop, mu, muSlope, area, p0, 1, out)) return;
 
   // Subsonic exit: g(M1) = ln(p_exit/p0) - ln(pd/p0) = 0 on (0, M1c). Without the capacity the
@@ -372,7 +360,8 @@ function evaluateAdiabatic(
     exitMach = out.outletMach;
   }
   if (!out.capacityKnown && !(exitMach < NEAR_CHOKE_MACH)) {
-    solveCapacity();
+    logChokedExitRatio = solveAdiabaticCapacity(pipe, gamma, reynoldsScale, fluxScale, area, out);
+    capacityMach = out.lastCapacityInletMach;
     if (targetLogRatio > logChokedExitRatio) {
       mach = adiabaticInletMach(pipe, gamma, reynoldsScale, targetLogRatio, capacityMach, out);
       exitMach = out.outletMach;
@@ -407,10 +396,10 @@ function evaluateAdiabatic(
     return;
   }
 
-  // Subsonic: final state at the converged M1 (adiabaticInletMach left M2 and X in out).
-  const reynolds = massFluxParameterOf(mach, gamma) * reynoldsScale;
-  frictionParameter(pipe, reynolds, friction);
+  // Subsonic: final state at the converged M1 (adiabaticInletMach left M2 in out and the
+  // friction parameter at M1 in out.friction).
   const phi = massFluxParameterOf(mach, gamma);
+  const reynolds = phi * reynoldsScale;
   out.lastInletMach = mach;
   out.choked = false;
   out.massFlow = phi * fluxScale * area;
@@ -442,9 +431,39 @@ function evaluateAdiabatic(
 }
 
 /**
+ * Solve an adiabatic pipe's capacity into `out` (its inlet Mach number into
+ * lastCapacityInletMach, which also warm-starts the next solve; the mass flow into capacity) and
+ * return ln(p_exit/p0) at it. `fluxScale` is p0 / sqrt(R T0) [kg/(s m2)] (G = Phi fluxScale),
+ * `area` the pipe's cross-section [m2].
+ * A function rather than a closure of evaluateAdiabatic, so that no context is allocated per
+ * call.
+ */
+function solveAdiabaticCapacity(
+  pipe: PipeGeometry,
+  gamma: number,
+  reynoldsScale: number,
+  fluxScale: number,
+  area: number,
+  out: PipeFlowEvaluation,
+): number {
+  const capacityMach = adiabaticCapacityMach(
+    pipe,
+    gamma,
+    reynoldsScale,
+    out.lastCapacityInletMach,
+    out.friction,
+  );
+  out.lastCapacityInletMach = capacityMach;
+  out.capacity = massFluxParameterOf(capacityMach, gamma) * fluxScale * area;
+  out.capacityKnown = true;
+  return logIsentropicPressure(capacityMach, gamma) - logFannoPressure(capacityMach, gamma);
+}
+
+/**
  * Inlet Mach number M1 in (0, upper) at which the exit static pressure is pd, by safeguarded
  * Newton on g(M1) = ln(p_exit/p0) - ln(pd/p0). Leaves the exit Mach number in out.outletMach
- * (1 when the root is not inside the bracket: the pipe is at or beyond its capacity).
+ * (1 when the root is not inside the bracket: the pipe is at or beyond its capacity) and the
+ * friction parameter at the returned M1 in out.friction.
  */
 function adiabaticInletMach(
   pipe: PipeGeometry,
@@ -464,19 +483,27 @@ function adiabaticInletMach(
     mach = Math.min(0.9 * hi, Math.sqrt((-2 * targetLogRatio) / (gamma * (1 + friction.value))));
   }
   let exitMach = 1;
+  // Start of the exit offset's Newton iteration: the last one found on this pipe, then the
+  // first-order prediction of each Newton step of M1 (NaN: from the Fanno inversion).
+  let offsetGuess = out.lastExitOffset;
+  let frictionAtMach = false;
   for (let iteration = 0; iteration < 100; iteration++) {
     const reynolds = massFluxParameterOf(mach, gamma) * reynoldsScale;
     frictionParameter(pipe, reynolds, friction);
+    frictionAtMach = true;
     const remaining = fannoParameter(mach, gamma) - friction.value;
     if (!(remaining > 0)) {
       // Beyond this pipe's capacity at this M1: the root lies below.
       hi = mach;
       mach = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
+      frictionAtMach = false;
+      offsetGuess = Number.NaN;
       exitMach = 1;
       if (hi - lo <= 1e-15 * hi) break;
       continue;
     }
-    const offset = fannoExitOffset(mach, friction.value, gamma, remaining);
+    const offset = fannoExitOffset(mach, friction.value, gamma, remaining, offsetGuess);
+    out.lastExitOffset = offset;
     exitMach = mach + offset;
     const logRatio = logPressureRatioOfOffset(mach, offset, gamma);
     // Newton in ln M1 on phi = ln(-ln r) - ln(-ln(pd/p0)): 1 - r grows as a power of M1 (M1^2 in
@@ -498,10 +525,19 @@ function adiabaticInletMach(
       logFannoPressureSlope(exitMach, gamma) * dExitMach;
     const phiSlope = (mach * slope) / logRatio; // d phi / d ln M1 > 0
     let next = mach * Math.exp(-phi / phiSlope);
-    if (!(next > lo && next < hi)) next = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
+    // The offset M2 - M1 moves by (dM2/dM1 - 1) dM1 to first order.
+    offsetGuess = offset + (dExitMach - 1) * (next - mach);
+    if (!(next > lo && next < hi)) {
+      next = lo > 0 ? Math.sqrt(lo * hi) : 0.5 * hi;
+      offsetGuess = Number.NaN;
+    }
     const change = Math.abs(next - mach);
     mach = next;
+    frictionAtMach = false;
     if (change <= 1e-13 * mach) break;
+  }
+  if (!frictionAtMach) {
+    frictionParameter(pipe, massFluxParameterOf(mach, gamma) * reynoldsScale, friction);
   }
   out.outletMach = exitMach;
   return mach;
@@ -514,18 +550,31 @@ function adiabaticInletMach(
  * form free of cancellation:
  *   DF = d (2a + d) / (gamma a^2 b^2) - ((gamma+1)/gamma) log1p(d/a)
  *        + ((gamma+1)/(2 gamma)) log1p((gamma-1) d (2a + d) / (2 + (gamma-1) a^2)),  b = a + d.
+ * DF is increasing and concave in d (F is convex on the subsonic branch) with DF(0) = 0, so
+ * DF(d) <= -F'(a) d and the root is at least X / -F'(a): a lower bound, from which Newton rises
+ * monotonically to the root, and where a step from above the root is caught. It starts from
+ * `guess` when that lies in (0, 1 - a) (a warm start: the last offset of this pipe, or its
+ * prediction), otherwise from M2 by the Fanno inversion; either way it stops on the same tests,
+ * so the start changes the result by no more than they allow.
  */
 function fannoExitOffset(
   inletMach: number,
   frictionValue: number,
   gamma: number,
   remaining: number,
+  guess: number,
 ): number {
   const a = inletMach;
   const c = (gamma + 1) / (2 * gamma);
-  let delta = Math.max(machFromFannoParameter(remaining, gamma, "subsonic") - a, 0);
-  if (delta === 0) delta = -frictionValue / fannoSlope(a, gamma);
-  let lo = 0;
+  const lower = -frictionValue / fannoSlope(a, gamma);
+  let delta: number;
+  if (guess > 0 && guess < 1 - a) {
+    delta = Math.max(guess, lower);
+  } else {
+    delta = Math.max(machFromFannoParameter(remaining, gamma, "subsonic") - a, 0);
+    if (delta === 0) delta = lower;
+  }
+  let lo = lower < 1 - a ? lower : 0;
   let hi = 1 - a;
   for (let iteration = 0; iteration < 30; iteration++) {
     const b = a + delta;
@@ -539,7 +588,7 @@ function fannoExitOffset(
     if (residual > 0) hi = delta;
     else lo = delta;
     let next = delta - residual / -fannoSlope(b, gamma);
-    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    if (!(next > lo && next < hi)) next = next <= lo ? lo : 0.5 * (lo + hi);
     const change = Math.abs(next - delta);
     delta = next;
     if (change <= 1e-15 * delta) break;
@@ -714,7 +763,7 @@ function evaluateIsothermal(
   const r = gas.specificGasConstant;
   const area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
   const mu = gas.viscosity(t);
-  const muSlope = viscositySlope(gas, t, mu);
+  const muSlope = gas.viscosityLogSlope(t);
   const rt = r * t;
   const sqrtRT = Math.sqrt(rt);
   const reynoldsPerFlux = pipe.diameter / mu;

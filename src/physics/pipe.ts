@@ -8,7 +8,7 @@
  *
  * Both for the adiabatic (Fanno) and the isothermal model; equations in docs/model.md.
  */
-import { gasViscosity } from "../gas/gas.js";
+import { gasViscosity, gasViscosityLogSlope } from "../gas/gas.js";
 import type { Gas } from "../gas/gas-types.js";
 import { gasState, isPerfectGas, temperatureFromEnthalpy } from "../gas/thermo.js";
 import { fannoParameter, fannoPressureRatio, machFromFannoParameter } from "./fanno.js";
@@ -135,6 +135,7 @@ export function pipeGas(gas: Gas): PipeGas {
     specificGasConstant: gas.specificGasConstant,
     heatCapacityRatio: gas.heatCapacityRatio,
     viscosity: (temperature: number) => gasViscosity(gas, temperature),
+    viscosityLogSlope: (temperature: number) => gasViscosityLogSlope(gas, temperature),
     gas,
   };
 }

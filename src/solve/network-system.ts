@@ -29,7 +29,6 @@
  * Edge flows are functions of the node states (src/physics/pipe-flow.ts): the upstream end is the
  * one at higher pressure; a choked edge's flow does not depend on its downstream pressure.
  */
-import { gasViscosity } from "../gas/gas.js";
 import type { PengRobinsonValues } from "../gas/peng-robinson.js";
 import { emptyPengRobinsonValues } from "../gas/peng-robinson.js";
 import {
@@ -40,6 +39,7 @@ import {
 } from "../gas/thermo.js";
 import type { NetworkModel } from "../model/build-network.js";
 import { type EdgeElement, evaluateEdgeFlow, flowsForward } from "../physics/edge-flow.js";
+import { pipeGas } from "../physics/pipe.js";
 import { isCreepingFlow, PipeFlowEvaluation, type PipeGas } from "../physics/pipe-flow.js";
 import type { BlockLuStructure } from "./sparse-block-lu.js";
 import { analyzeBlockPattern } from "./sparse-block-lu.js";
@@ -110,6 +110,53 @@ export interface NetworkSystem {
    * a calorically perfect ideal gas, whose energy rows balance temperatures.
    */
   thermo: { state: ThermoState; equationOfState: PengRobinsonValues } | undefined;
+  /**
+   * Working arrays of {@link evaluateSystem} that do not outlive a call, made once per system
+   * (systems derived from this one share them; evaluations run one at a time).
+   */
+  scratch: EvaluationScratch;
+}
+
+/** Per-edge and per-junction working arrays of {@link evaluateSystem}. */
+export interface EvaluationScratch {
+  /** Per edge: the arrival as an enthalpy temperature H at the downstream node, dH/dT, dH/dp. */
+  arrivalEnthalpy: Float64Array;
+  arrivalEnthalpyPerT: Float64Array;
+  arrivalEnthalpyPerP: Float64Array;
+  /** Per edge, 4 slots (pFrom, TFrom, pTo, TTo): slopes of the signed flow and of the arrival. */
+  flowSlopes: Float64Array;
+  arrivalSlopes: Float64Array;
+  /** Per node: inflow from the edges and the round-off of its flows [kg/s]. */
+  nodeInflow: Float64Array;
+  nodeFlowNoise: Float64Array;
+  /** Per junction: H(T_j, p_j), its slopes, and d/dp_j of the supply terms. */
+  junctionEnthalpy: Float64Array;
+  junctionEnthalpyPerT: Float64Array;
+  junctionEnthalpyPerP: Float64Array;
+  supplyTermPerP: Float64Array;
+  /** dH/dT and dH/dp of one enthalpy evaluation. */
+  slopes: Float64Array;
+}
+
+function createEvaluationScratch(
+  edgeCount: number,
+  nodeCount: number,
+  junctionCount: number,
+): EvaluationScratch {
+  return {
+    arrivalEnthalpy: new Float64Array(edgeCount),
+    arrivalEnthalpyPerT: new Float64Array(edgeCount),
+    arrivalEnthalpyPerP: new Float64Array(edgeCount),
+    flowSlopes: new Float64Array(4 * edgeCount),
+    arrivalSlopes: new Float64Array(4 * edgeCount),
+    nodeInflow: new Float64Array(nodeCount),
+    nodeFlowNoise: new Float64Array(nodeCount),
+    junctionEnthalpy: new Float64Array(junctionCount),
+    junctionEnthalpyPerT: new Float64Array(junctionCount),
+    junctionEnthalpyPerP: new Float64Array(junctionCount),
+    supplyTermPerP: new Float64Array(junctionCount),
+    slopes: new Float64Array(2),
+  };
 }
 
 /** Per-iteration results of an evaluation of the system. */
@@ -142,12 +189,7 @@ export interface SystemEvaluation {
 export function createNetworkSystem(model: NetworkModel): NetworkSystem {
   const doc = model.document;
   const gasData = doc.gas;
-  const gas: PipeGas = {
-    specificGasConstant: gasData.specificGasConstant,
-    heatCapacityRatio: gasData.heatCapacityRatio,
-    viscosity: (temperature: number) => gasViscosity(gasData, temperature),
-    gas: gasData,
-  };
+  const gas = pipeGas(gasData);
   const elevations = new Map(doc.nodes.map((node) => [node.id, node.elevation]));
   const elevationOf = (id: string): number => elevations.get(id) ?? 0;
   const elements: EdgeElement[] = doc.edges.map(
@@ -236,6 +278,7 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
       gasData.heatCapacity === undefined && gasData.equationOfState === undefined
         ? undefined
         : { state: emptyThermoState(), equationOfState: emptyPengRobinsonValues() },
+    scratch: createEvaluationScratch(model.edgeFrom.length, nodeCount, junctionCount),
   };
 }
 
@@ -523,21 +566,21 @@ export function evaluateSystem(
   const { model, edgeCount, junctionCount } = system;
   const massFlow = new Float64Array(edgeCount);
   const choked = new Uint8Array(edgeCount);
+  // Working arrays, reused across calls (the system's scratch): every entry read below is
+  // written first in this call, or zeroed here.
+  const scratch = system.scratch;
   // Per edge: the arrival as an enthalpy temperature H at the downstream node's pressure, with
   // its slopes dH/dT and dH/dp there (1 and 0 for a perfect gas: H is the arrival temperature).
-  const arrivalEnthalpy = new Float64Array(edgeCount);
-  const arrivalEnthalpyPerT = new Float64Array(edgeCount);
-  const arrivalEnthalpyPerP = new Float64Array(edgeCount);
-  const slopes = new Float64Array(2);
+  const { arrivalEnthalpy, arrivalEnthalpyPerT, arrivalEnthalpyPerP, slopes } = scratch;
   // Per edge: derivatives of the signed flow and of the arrival temperature with respect to the
-  // unscaled states (pFrom, TFrom, pTo, TTo).
-  const flowSlopes = new Float64Array(4 * edgeCount);
-  const arrivalSlopes = new Float64Array(4 * edgeCount);
+  // unscaled states (pFrom, TFrom, pTo, TTo); the downstream temperature's slot stays 0.
+  const flowSlopes = scratch.flowSlopes.fill(0);
+  const arrivalSlopes = scratch.arrivalSlopes.fill(0);
   const nodeCount = model.document.nodes.length;
   const nodeNetOutflow = new Float64Array(nodeCount);
-  const nodeInflow = new Float64Array(nodeCount);
+  const nodeInflow = scratch.nodeInflow.fill(0);
   // Round-off of each flow: its change for a few units of rounding in its end pressures [kg/s].
-  const nodeFlowNoise = new Float64Array(nodeCount);
+  const nodeFlowNoise = scratch.nodeFlowNoise.fill(0);
 
   const ends = emptyEdgeEnds();
   for (let e = 0; e < edgeCount; e++) {
@@ -596,10 +639,7 @@ export function evaluateSystem(
   const residual = new Float64Array(2 * junctionCount);
   // Per junction: its own enthalpy temperature H(T_j, p_j) and slopes, and d/dp_j of the ambient
   // and injection terms' w (H_ambient - H_j) + injection (H_injected - H_j) (0 for a perfect gas).
-  const junctionEnthalpy = new Float64Array(junctionCount);
-  const junctionEnthalpyPerT = new Float64Array(junctionCount);
-  const junctionEnthalpyPerP = new Float64Array(junctionCount);
-  const supplyTermPerP = new Float64Array(junctionCount);
+  const { junctionEnthalpy, junctionEnthalpyPerT, junctionEnthalpyPerP, supplyTermPerP } = scratch;
   for (let j = 0; j < junctionCount; j++) {
     const node = model.junctionNodes[j] as number;
     const t = (x[2 * j + 1] as number) * temperatureScale;

@@ -8,6 +8,7 @@ import {
   gasMixture,
   gasPreset,
   gasViscosity,
+  gasViscosityLogSlope,
   idealGas,
   isGasPresetName,
   MOLAR_GAS_CONSTANT,
@@ -529,6 +530,67 @@ describe("Wilke's rule", () => {
       const temperature = 300 + 100 * index;
       expectRelative(gasViscosity(dryAir, temperature) * 1e6, mu, 0.03, `${temperature} K`);
     });
+  });
+});
+
+describe("gasViscosityLogSlope", () => {
+  /** d ln mu / dT of gasViscosity by Richardson-extrapolated central differences. */
+  function differenceLogSlope(gas: Gas, temperature: number): number {
+    const central = (h: number) =>
+      (gasViscosity(gas, temperature + h) - gasViscosity(gas, temperature - h)) / (2 * h);
+    const h = 1e-3 * temperature;
+    return (4 * central(h / 2) - central(h)) / 3 / gasViscosity(gas, temperature);
+  }
+
+  it("is the derivative of gasViscosity for every preset and for Wilke mixtures", () => {
+    // Reference: differences of gasViscosity itself. Tolerance 1e-9 relative: the extrapolated
+    // difference has a truncation error of order (1e-3)^4 and a rounding error of order
+    // 1e-16 / 1e-3 relative to the slope.
+    const mixtures = [
+      gasMixture([
+        { gas: gasPreset("methane"), moleFraction: 0.6 },
+        { gas: constantViscosityGas(0.04607, 9.5029e-6), moleFraction: 0.3 },
+        { gas: gasPreset("hydrogen"), moleFraction: 0.1 },
+      ]),
+      gasMixture([
+        { gas: gasPreset("helium"), moleFraction: 0.5 },
+        { gas: gasPreset("argon"), moleFraction: 0.5 },
+        { gas: gasPreset("nitrogen"), moleFraction: 0 },
+      ]),
+    ];
+    for (const gas of [...GAS_PRESET_NAMES.map((name) => gasPreset(name)), ...mixtures]) {
+      for (const temperature of [150, 293.15, 600]) {
+        expectRelative(
+          gasViscosityLogSlope(gas, temperature),
+          differenceLogSlope(gas, temperature),
+          1e-9,
+          `${gas.name} at ${temperature} K`,
+        );
+      }
+    }
+  });
+
+  it("is 0 for a constant viscosity and 1.5/T - 1/(T + S) for Sutherland's law", () => {
+    // Closed forms (the derivative of mu0 (T/T0)^1.5 (T0 + S)/(T + S)); 1e-15: rounding only.
+    expect(gasViscosityLogSlope(constantViscosityGas(0.028, 1.8e-5), 300)).toBe(0);
+    const air = gasPreset("air");
+    const law = air.viscosityLaw as SutherlandViscosity;
+    expectRelative(
+      gasViscosityLogSlope(air, 400),
+      1.5 / 400 - 1 / (400 + law.sutherlandConstant),
+      1e-15,
+      "air at 400 K",
+    );
+  });
+
+  it("@example: air at 288.15 K", () => {
+    // As printed (0.0026965, S = 110.4 K); tolerance half its last digit.
+    expect(Math.abs(gasViscosityLogSlope(gasPreset("air"), 288.15) - 0.0026965)).toBeLessThan(5e-8);
+  });
+
+  it("refuses a temperature that is not a finite number > 0", () => {
+    expect(() => gasViscosityLogSlope(gasPreset("air"), 0)).toThrow(RangeError);
+    expect(() => gasViscosityLogSlope(gasPreset("air"), Number.NaN)).toThrow(RangeError);
   });
 });
 

@@ -240,6 +240,40 @@ describe("@example values in src/physics/friction.ts", () => {
 });
 
 describe("darcyFrictionWithSlope", () => {
+  it("warm-started from another root (a record with inverseRoot) gives the exact solution of the fixture's grid", () => {
+    // Reference: test/fixtures/friction/colebrook.json, the exact Lambert W solution (mpmath, 60
+    // digits), 1e-13 as for colebrookWhite above. Against the cold solve 2e-15: each stops at
+    // rounding level of x = 1/sqrt(fD), a few units of 1e-16, twice that in fD = 1/x^2.
+    const grid = fixture.cases.filter((c) => c.kind === "grid");
+    const far = { factor: 0, logSlope: 0, inverseRoot: Number.NaN };
+    const near = { factor: 0, logSlope: 0, inverseRoot: Number.NaN };
+    for (const c of grid) {
+      // `far` keeps the root of the previous case (another roughness or Reynolds number);
+      // `near` starts from the root at a Reynolds number 0.1 % higher, as in a Newton iteration.
+      darcyFrictionWithSlope(c.reynolds * 1.001, c.relativeRoughness, near);
+      for (const warm of [far, near]) {
+        darcyFrictionWithSlope(c.reynolds, c.relativeRoughness, warm);
+        expect(relativeError(warm.factor, c.exact)).toBeLessThan(1e-13);
+        const cold = darcyFrictionFactor(c.reynolds, c.relativeRoughness);
+        expect(relativeError(warm.factor, cold)).toBeLessThan(2e-15);
+      }
+    }
+  });
+
+  it("converges from any positive start, however far from the root", () => {
+    // The same tolerances as above; starts far above the root make the first Newton step leave
+    // x > 0, where the bracketed iteration takes over.
+    const grid = fixture.cases.filter((c) => c.kind === "grid");
+    for (const start of [1e-300, 1e-3, 30, 1e3, 1e300]) {
+      for (const c of grid) {
+        const record = { factor: 0, logSlope: 0, inverseRoot: start };
+        darcyFrictionWithSlope(c.reynolds, c.relativeRoughness, record);
+        expect(relativeError(record.factor, c.exact)).toBeLessThan(1e-13);
+        expect(record.inverseRoot).toBeCloseTo(1 / Math.sqrt(record.factor), 12);
+      }
+    }
+  });
+
   it("gives the same factor and slope as the two separate functions, in every regime", () => {
     const out = { factor: 0, logSlope: 0 };
     for (const reynolds of [50, 2300, 2301, 3000, 3999, 4000, 1e5, 1e8]) {
