@@ -18,11 +18,10 @@ import type {
 import { INPUT_RANGES, inRange, quantityInRange } from "./input-ranges.js";
 import { InputError, type InputIssue, jsonPointer, sortIssues } from "./issues.js";
 import { firstJsonSyntaxError } from "./json-syntax-error.js";
-import { networkSchema } from "./network-schema.js";
 import { parseQuantity, type QuantityKind } from "./quantity.js";
 import { readComponentEdge, readPipeExtras } from "./read-components.js";
 import { readGas } from "./read-gas.js";
-import { compileValidator } from "./validate-schema.js";
+import { validateNetworkSchema } from "./validate-schema.js";
 
 export { INPUT_RANGES, type InputRange } from "./input-ranges.js";
 
@@ -127,11 +126,9 @@ function lineAndColumn(text: string, offset: number): { line: number; column: nu
   return { line, column: offset - lineStart + 1 };
 }
 
-const validateNetwork = compileValidator(networkSchema);
-
 /** Check a parsed value against schemas/network.schema.json; [] when it conforms. */
 export function validateAgainstSchema(value: unknown): InputIssue[] {
-  return sortIssues(validateNetwork(value));
+  return sortIssues(validateNetworkSchema(value));
 }
 
 /**

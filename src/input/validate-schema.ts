@@ -1,29 +1,31 @@
 /**
- * JSON Schema validation shared by every document machnet reads (networks, studies): one ajv
- * set-up, compiled once per schema on first use, and ajv's errors reworded as user-facing
- * issues with their JSON Pointers, each problem once.
+ * JSON Schema validation shared by every document machnet reads (networks, studies): the
+ * validating functions that ajv's standalone code generation wrote at build time
+ * (src/input/schema-validators.generated.ts, from schemas/validator-source.js; nothing is
+ * compiled at run time), and ajv's errors reworded as user-facing issues with their JSON
+ * Pointers, each problem once.
  */
-import { Ajv2020, type ErrorObject } from "ajv/dist/2020.js";
+import type { ErrorObject } from "ajv/dist/2020.js";
 import { type InputIssue, pointerSegment } from "./issues.js";
+import {
+  validateNetwork as generatedNetworkValidator,
+  validateStudy as generatedStudyValidator,
+} from "./schema-validators.generated.js";
 
-/**
- * A validator of `schema`: returns [] when a value conforms, else its issues (unsorted, each
- * place and message once). The schema is compiled on the first call and kept (allowed shared
- * state: it never changes).
- */
-export function compileValidator(schema: object): (value: unknown) => InputIssue[] {
-  let validate: ReturnType<Ajv2020["compile"]> | undefined;
+/** An ajv validating function: true when the value conforms, else its errors on `errors`. */
+interface GeneratedValidator {
+  (value: unknown): boolean;
+  errors?: ErrorObject[] | null;
+}
+
+/** Issues of a value against schemas/network.schema.json (unsorted, each place and message once). */
+export const validateNetworkSchema = issuesOf(generatedNetworkValidator as GeneratedValidator);
+
+/** Issues of a value against schemas/study.schema.json (unsorted, each place and message once). */
+export const validateStudyDocumentSchema = issuesOf(generatedStudyValidator as GeneratedValidator);
+
+function issuesOf(validate: GeneratedValidator): (value: unknown) => InputIssue[] {
   return (value) => {
-    if (validate === undefined) {
-      const ajv = new Ajv2020({
-        allErrors: true,
-        verbose: true,
-        strict: true,
-        strictRequired: false,
-        allowUnionTypes: true,
-      });
-      validate = ajv.compile(schema);
-    }
     if (validate(value)) return [];
     // Copy at once: ajv keeps only the last call's errors on the validator.
     return issuesFromAjv([...(validate.errors ?? [])]);

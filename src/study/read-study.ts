@@ -12,8 +12,7 @@ import { catalogPipe, PIPE_SCHEDULES, parseNominalSize } from "../input/pipe-cat
 import { PIPE_DIMENSIONS } from "../input/pipe-catalog-data.js";
 import { parseQuantity, type QuantityKind } from "../input/quantity.js";
 import { parseJsonText, readNetworkDocument } from "../input/read-document.js";
-import { studySchema } from "../input/study-schema.js";
-import { compileValidator } from "../input/validate-schema.js";
+import { validateStudyDocumentSchema } from "../input/validate-schema.js";
 import { buildNetwork } from "../model/build-network.js";
 import type { DisplayKind } from "../output/display-units.js";
 import { DEFAULT_BLOCK_SIZE, MAX_CASES } from "./cases.js";
@@ -52,11 +51,9 @@ export type StudyReadResult =
       networkIssues: InputIssue[];
     };
 
-const validateStudy = compileValidator(studySchema);
-
 /** Check a parsed value against schemas/study.schema.json; [] when it conforms. */
 export function validateStudySchema(value: unknown): StudyIssue[] {
-  return sortStudyIssues(validateStudy(value));
+  return sortStudyIssues(validateStudyDocumentSchema(value));
 }
 
 /** Read a study from JSON text (see {@link readStudyDocument}). */

@@ -417,6 +417,10 @@ describe("sparse solve of network Jacobians against a dense solve", () => {
     "tiny-huge-33-iterations.json",
     // Defect B3's fixture: junctions behind a DN 6 restriction at 0.37 of the supply pressure.
     "offsets-far-below-supply-736.json",
+    // Junctions with no demand behind a bridge: the first guess starts such a bridge at its
+    // exact flow (from the demands alone, src/solve/initial-guess.ts), zero, so their energy rows
+    // are held by the no-flow weight alone at the first guess.
+    "mixed-temperatures.json",
     // Its 4 x 4 first-guess Jacobian has a 2-norm condition number of 3.1e12 (ml-matrix SVD):
     // the two solves agreed to 1e-28 only by the luck of their rounding, and a change of the
     // mass flux by one unit of rounding (exp of log1p for the power) leaves them 1.4e-8 apart,
