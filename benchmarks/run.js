@@ -271,6 +271,15 @@ async function genericSolve(system, networkSystem, tolerance) {
     throughput = evaluation.throughput;
     return evaluation.residual;
   };
+  // A trial outside the relations' range (the property functions throw) counts as no decrease.
+  const residualAtTrial = (state) => {
+    try {
+      return residualOf(state);
+    } catch (error) {
+      if (error instanceof RangeError) return [Number.POSITIVE_INFINITY];
+      throw error;
+    }
+  };
   const largest = (r) => r.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
   const normOf = (r) => Math.hypot(...r);
   let residual = ownScale(x);
@@ -312,12 +321,15 @@ async function genericSolve(system, networkSystem, tolerance) {
     for (let j = 0; j < size; j += 2) {
       const half = 0.5 * (1 + x[j]);
       if (Math.abs(step[j]) > half) alpha = Math.min(alpha, half / Math.abs(step[j]));
+      // Nor a temperature by more than 30 % of itself (the fast solver's own limit).
+      const limit = 0.3 * x[j + 1];
+      if (Math.abs(step[j + 1]) > limit) alpha = Math.min(alpha, limit / Math.abs(step[j + 1]));
     }
     const norm = normOf(residual);
     let accepted = false;
     while (alpha > 1e-6) {
       const trial = x.map((v, i) => v + alpha * step[i]);
-      if (normOf(residualOf(trial)) < norm) {
+      if (normOf(residualAtTrial(trial)) < norm) {
         x = trial;
         residual = ownScale(trial);
         accepted = true;
