@@ -261,6 +261,14 @@ async function genericSolve(system, networkSystem, tolerance) {
   const fresh = createNetworkSystem(networkSystem.model);
   const started = performance.now();
   let x = initialGuess(fresh);
+  // The first guess starts dead-end branches at exactly zero pressure drop, on the kink of the
+  // flow law there, where finite differences do not give a usable Jacobian: the generic run
+  // starts 1e-6 (seeded, relative) away from it in each pressure.
+  let seed = 12345;
+  for (let j = 0; j < x.length; j += 2) {
+    seed = (seed * 1103515245 + 12345) % 2 ** 31;
+    x[j] += 1e-6 * (seed / 2 ** 31 - 0.5) * (1 + x[j]);
+  }
   const size = x.length;
   // Residuals with the mass scale W of the current iterate held fixed within an iteration (as
   // the fast solver's line search does), so that trial norms are comparable.
@@ -294,48 +302,62 @@ async function genericSolve(system, networkSystem, tolerance) {
       break;
     }
     iterations++;
-    const jacobian = new Matrix(size, size);
-    const shifted = Float64Array.from(x);
-    for (let column = 0; column < size; column++) {
-      const h = 1e-7 * Math.max(1, Math.abs(x[column]));
-      shifted[column] = x[column] + h;
-      const r = residualOf(shifted);
-      shifted[column] = x[column];
-      for (let row = 0; row < size; row++) jacobian.set(row, column, (r[row] - residual[row]) / h);
-      if (performance.now() - started > GENERIC_LIMIT_MS) break;
-    }
-    if (performance.now() - started > GENERIC_LIMIT_MS) break;
-    // A choked edge's flow does not depend on its downstream pressure, which can leave a column
-    // of zeros: a diagonal shift of 1e-10 of each row's size keeps the LU defined.
-    for (let row = 0; row < size; row++) {
-      let rowSize = 0;
-      for (let column = 0; column < size; column++) rowSize += Math.abs(jacobian.get(row, column));
-      jacobian.set(row, row, jacobian.get(row, row) - 1e-10 * (rowSize || 1));
-    }
-    const step = new LuDecomposition(jacobian)
-      .solve(Matrix.columnVector(Array.from(residual, (v) => -v)))
-      .getColumn(0);
-    let alpha = 1;
-    // Pressure unknowns are offsets from a reference, p = p_ref (1 + x): no step may change a
-    // pressure by more than half of itself.
-    for (let j = 0; j < size; j += 2) {
-      const half = 0.5 * (1 + x[j]);
-      if (Math.abs(step[j]) > half) alpha = Math.min(alpha, half / Math.abs(step[j]));
-      // Nor a temperature by more than 30 % of itself (the fast solver's own limit).
-      const limit = 0.3 * x[j + 1];
-      if (Math.abs(step[j + 1]) > limit) alpha = Math.min(alpha, limit / Math.abs(step[j + 1]));
-    }
-    const norm = normOf(residual);
+    // Forward differences first; where their step finds no decrease (they straddle the kinks of
+    // zero flow and of choking that a first guess can start on), central differences once more.
     let accepted = false;
-    while (alpha > 1e-6) {
-      const trial = x.map((v, i) => v + alpha * step[i]);
-      if (normOf(residualAtTrial(trial)) < norm) {
-        x = trial;
-        residual = ownScale(trial);
-        accepted = true;
-        break;
+    for (const central of [false, true]) {
+      const jacobian = new Matrix(size, size);
+      const shifted = Float64Array.from(x);
+      for (let column = 0; column < size; column++) {
+        const h = 1e-7 * Math.max(1, Math.abs(x[column]));
+        shifted[column] = x[column] + h;
+        const r = residualOf(shifted);
+        if (central) {
+          shifted[column] = x[column] - h;
+          const l = residualOf(shifted);
+          for (let row = 0; row < size; row++)
+            jacobian.set(row, column, (r[row] - l[row]) / (2 * h));
+        } else {
+          for (let row = 0; row < size; row++)
+            jacobian.set(row, column, (r[row] - residual[row]) / h);
+        }
+        shifted[column] = x[column];
+        if (performance.now() - started > GENERIC_LIMIT_MS) break;
       }
-      alpha *= 0.5;
+      if (performance.now() - started > GENERIC_LIMIT_MS) break;
+      // A choked edge's flow does not depend on its downstream pressure, which can leave a column
+      // of zeros: a diagonal shift of 1e-10 of each row's size keeps the LU defined.
+      for (let row = 0; row < size; row++) {
+        let rowSize = 0;
+        for (let column = 0; column < size; column++)
+          rowSize += Math.abs(jacobian.get(row, column));
+        jacobian.set(row, row, jacobian.get(row, row) - 1e-10 * (rowSize || 1));
+      }
+      const step = new LuDecomposition(jacobian)
+        .solve(Matrix.columnVector(Array.from(residual, (v) => -v)))
+        .getColumn(0);
+      let alpha = 1;
+      // Pressure unknowns are offsets from a reference, p = p_ref (1 + x): no step may change a
+      // pressure by more than half of itself.
+      for (let j = 0; j < size; j += 2) {
+        const half = 0.5 * (1 + x[j]);
+        if (Math.abs(step[j]) > half) alpha = Math.min(alpha, half / Math.abs(step[j]));
+        // Nor a temperature by more than 30 % of itself (the fast solver's own limit).
+        const limit = 0.3 * x[j + 1];
+        if (Math.abs(step[j + 1]) > limit) alpha = Math.min(alpha, limit / Math.abs(step[j + 1]));
+      }
+      const norm = normOf(residual);
+      while (alpha > 1e-6) {
+        const trial = x.map((v, i) => v + alpha * step[i]);
+        if (normOf(residualAtTrial(trial)) < norm) {
+          x = trial;
+          residual = ownScale(trial);
+          accepted = true;
+          break;
+        }
+        alpha *= 0.5;
+      }
+      if (accepted) break;
     }
     if (!accepted) {
       stalled = true;
