@@ -4,12 +4,12 @@
  * them to `Gas` objects on request. docs/model.md tabulates the sources.
  *
  * Every value here but the fitted alkane polynomials (below) is FROM MEMORY (no copy of the
- * sources was at hand) and is confirmed by the closed-form checks of test/gas/gas-models.test.ts: continuity of cp, h and s at the common
- * temperature, h(298.15 K) against the enthalpy of formation, cp/R = 5/2 for monatomic gases,
- * cp near 298.15 K against the presets' own cp, and cp against independent tables; and by
- * test/gas/real-gas-reference.test.ts against the reference equations of state of CoolProp
- * 8.0.0 (their ideal-gas cp0, and Z, density, speed of sound and enthalpy departure), whose
- * measured agreement is stated beside each species.
+ * sources was at hand) and is confirmed by the closed-form checks of test/gas/gas-models.test.ts:
+ * continuity of cp, h and s at the common temperature, h(298.15 K) against the enthalpy of
+ * formation, cp/R = 5/2 for monatomic gases, cp near 298.15 K against the presets' own cp, and cp
+ * against independent tables; and by test/gas/real-gas-reference.test.ts against the reference
+ * equations of state of CoolProp 8.0.0 (their ideal-gas cp0, and Z, density, speed of sound and
+ * enthalpy departure), whose measured agreement is stated beside each species.
  */
 
 import type { SpeciesName } from "./gas-presets.js";
@@ -157,9 +157,9 @@ export const NASA7: Partial<Record<SpeciesName, Nasa7Data>> = {
   },
   /**
    * NASA 7-coefficient form fitted by machnet (test/fixtures/real-gas/fit-alkane-nasa7.py) to
-   * CoolProp 8.0.0 cp0 of Buecker-JPCRD-2006 (Buecker and Wagner 2006); not from the NASA or
-   * Burcat databases. Largest cp deviation +0.014 % (at 200 K) over 200-675 K.
-   * H(298.15 K) -83.78 kJ/mol (ATcT), S° 229.2 J/(mol K) (CRC).
+   * CoolProp 8.0.0 cp0 of Buecker-JPCRD-2006 (Buecker and Wagner 2006); not from the NASA or Burcat
+   * databases. Largest cp deviation +0.014 % (at 200 K) over 200-675 K. H(298.15 K) -83.78 kJ/mol
+   * (ATcT), S° 229.2 J/(mol K) (CRC).
    */
   ethane: {
     formula: "C2H6",
@@ -172,8 +172,8 @@ export const NASA7: Partial<Record<SpeciesName, Nasa7Data>> = {
   /**
    * NASA 7-coefficient form fitted by machnet (test/fixtures/real-gas/fit-alkane-nasa7.py) to
    * CoolProp 8.0.0 cp0 of Lemmon-JCED-2009 (Lemmon, McLinden and Wagner 2009); not from the NASA or
-   * Burcat databases. Largest cp deviation +0.021 % (at 200 K) over 200-650 K.
-   * H(298.15 K) -104.39 kJ/mol (ATcT), S° 270.3 J/(mol K) (CRC).
+   * Burcat databases. Largest cp deviation +0.021 % (at 200 K) over 200-650 K. H(298.15 K) -104.39
+   * kJ/mol (ATcT), S° 270.3 J/(mol K) (CRC).
    */
   propane: {
     formula: "C3H8",
@@ -186,8 +186,8 @@ export const NASA7: Partial<Record<SpeciesName, Nasa7Data>> = {
   /**
    * NASA 7-coefficient form fitted by machnet (test/fixtures/real-gas/fit-alkane-nasa7.py) to
    * CoolProp 8.0.0 cp0 of Buecker-JPCRD-2006B (Buecker and Wagner 2006); not from the NASA or
-   * Burcat databases. Largest cp deviation +0.029 % (at 200 K) over 200-575 K.
-   * H(298.15 K) -135.36 kJ/mol (ATcT), S° 295.34 J/(mol K) (Yaws).
+   * Burcat databases. Largest cp deviation +0.029 % (at 200 K) over 200-575 K. H(298.15 K) -135.36
+   * kJ/mol (ATcT), S° 295.34 J/(mol K) (Yaws).
    */
   isobutane: {
     formula: "C4H10",
@@ -200,8 +200,8 @@ export const NASA7: Partial<Record<SpeciesName, Nasa7Data>> = {
   /**
    * NASA 7-coefficient form fitted by machnet (test/fixtures/real-gas/fit-alkane-nasa7.py) to
    * CoolProp 8.0.0 cp0 of Buecker-JPCRD-2006B (Buecker and Wagner 2006); not from the NASA or
-   * Burcat databases. Largest cp deviation +0.033 % (at 200 K) over 200-575 K.
-   * H(298.15 K) -125.85 kJ/mol (ATcT), S° 304.4 J/(mol K) (Yaws).
+   * Burcat databases. Largest cp deviation +0.033 % (at 200 K) over 200-575 K. H(298.15 K) -125.85
+   * kJ/mol (ATcT), S° 304.4 J/(mol K) (Yaws).
    */
   "n-butane": {
     formula: "C4H10",
@@ -213,9 +213,9 @@ export const NASA7: Partial<Record<SpeciesName, Nasa7Data>> = {
   },
   /**
    * NASA 7-coefficient form fitted by machnet (test/fixtures/real-gas/fit-alkane-nasa7.py) to
-   * CoolProp 8.0.0 cp0 of Lemmon-JCED-2006 (Lemmon and Span 2006); not from the NASA or
-   * Burcat databases. Largest cp deviation +0.006 % (at 200 K) over 200-500 K.
-   * H(298.15 K) -153.60 kJ/mol (CRC), S° 343.89 J/(mol K) (Yaws).
+   * CoolProp 8.0.0 cp0 of Lemmon-JCED-2006 (Lemmon and Span 2006); not from the NASA or Burcat
+   * databases. Largest cp deviation +0.006 % (at 200 K) over 200-500 K. H(298.15 K) -153.60 kJ/mol
+   * (CRC), S° 343.89 J/(mol K) (Yaws).
    */
   isopentane: {
     formula: "C5H12",
@@ -228,8 +228,8 @@ export const NASA7: Partial<Record<SpeciesName, Nasa7Data>> = {
   /**
    * NASA 7-coefficient form fitted by machnet (test/fixtures/real-gas/fit-alkane-nasa7.py) to
    * CoolProp 8.0.0 cp0 of Thol-FPE-2019-alkanes-pentane (Thol et al. 2019); not from the NASA or
-   * Burcat databases. Largest cp deviation +0.004 % (at 200 K) over 200-650 K.
-   * H(298.15 K) -146.90 kJ/mol (CRC), S° 347.82 J/(mol K) (NIST WebBook).
+   * Burcat databases. Largest cp deviation +0.004 % (at 200 K) over 200-650 K. H(298.15 K) -146.90
+   * kJ/mol (CRC), S° 347.82 J/(mol K) (NIST WebBook).
    */
   "n-pentane": {
     formula: "C5H12",
@@ -242,8 +242,8 @@ export const NASA7: Partial<Record<SpeciesName, Nasa7Data>> = {
   /**
    * NASA 7-coefficient form fitted by machnet (test/fixtures/real-gas/fit-alkane-nasa7.py) to
    * CoolProp 8.0.0 cp0 of Thol-FPE-2019-alkanes-hexane (Thol et al. 2019); not from the NASA or
-   * Burcat databases. Largest cp deviation +0.036 % (at 200 K) over 200-600 K.
-   * H(298.15 K) -166.94 kJ/mol (ATcT), S° 388.82 J/(mol K) (NIST WebBook).
+   * Burcat databases. Largest cp deviation +0.036 % (at 200 K) over 200-600 K. H(298.15 K) -166.94
+   * kJ/mol (ATcT), S° 388.82 J/(mol K) (NIST WebBook).
    */
   "n-hexane": {
     formula: "C6H14",

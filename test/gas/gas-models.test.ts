@@ -45,7 +45,7 @@ const NASA_SPECIES = Object.keys(NASA7) as SpeciesName[];
 const PRESET_SPECIES = NASA_SPECIES.filter((name) => isGasPresetName(name));
 const ALKANES = NASA_SPECIES.filter((name) => !isGasPresetName(name));
 
-describe("NASA 7-coefficient data (recalled from the Burcat database: closed-form checks)", () => {
+describe("NASA 7-coefficient data (recalled Burcat sets; the alkanes fitted by machnet): closed-form checks", () => {
   it("has data for every preset, natural gas through its alkanes' fitted polynomials (test/gas/real-gas-reference.test.ts, docs/validation.md)", () => {
     for (const name of GAS_PRESET_NAMES) {
       expect(gasPresetModels(name).heatCapacity, name).toEqual(["constant", "nasa7"]);
@@ -67,8 +67,8 @@ describe("NASA 7-coefficient data (recalled from the Burcat database: closed-for
   });
 
   it("(a) keeps cp, h and s continuous at the common temperature of the two ranges", () => {
-    // The fits are constrained to meet at 1000 K and printed to 9 significant figures, so the
-    // two ranges agree to about 1e-8 in cp/R, h/RT and s/R. Tolerance 1e-6: a mis-recalled
+    // The fits are constrained to meet at 1000 K (the fitted alkanes at 400 K) and printed to 9
+    // or 10 significant figures, so the two ranges agree to about 1e-8 in cp/R, h/RT and s/R. Tolerance 1e-6: a mis-recalled
     // digit down to about the 7th significant figure of any coefficient breaks it.
     for (const name of NASA_SPECIES) {
       const species = nasaSpecies(name);
