@@ -634,7 +634,7 @@ describe("documented examples (TSDoc @example in src/gas/thermo.ts, gas.ts, peng
       api.gasPreset("nitrogen", { equationOfState: "peng-robinson" }).equationOfState?.components[0]
         ?.criticalTemperature,
     ).toBe(126.2);
-    expect(api.gasPresetModels("natural-gas").heatCapacity).toEqual(["constant"]);
+    expect(api.gasPresetModels("natural-gas").heatCapacity).toEqual(["constant", "nasa7"]);
     expect(Math.abs(api.pengRobinsonKappa(0.011) - 0.39157)).toBeLessThan(5e-6);
     // kappa(omega) against the 1976 polynomial written out (closed form).
     expect(api.pengRobinsonKappa(0.2)).toBeCloseTo(0.37464 + 1.54226 * 0.2 - 0.26992 * 0.04, 14);
