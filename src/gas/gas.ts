@@ -171,7 +171,7 @@ function presetParts(name: SpeciesName): { species: SpeciesName; moleFraction: n
  *
  * @param name - one of {@link GAS_PRESET_NAMES}
  * @returns the heat-capacity models and equations of state that {@link gasPreset} accepts for it
- * @example gasPresetModels("natural-gas").heatCapacity // ["constant"] (no NASA data for its C2-C6 alkanes)
+ * @example gasPresetModels("natural-gas").heatCapacity // ["constant", "nasa7"] (its C2-C6 alkanes: polynomials fitted by machnet, src/gas/gas-model-data.ts)
  */
 export function gasPresetModels(name: GasPresetName): {
   heatCapacity: HeatCapacityModelName[];

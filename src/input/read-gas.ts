@@ -259,7 +259,11 @@ function readCustomCriticalConstants(
   };
 }
 
-/** Whether a preset has the data of the models asked for; an issue at `path` if not. */
+/**
+ * Whether a preset has the data of the models asked for; an issue at `path` if not. Today every
+ * preset has both (natural gas's nasa7 since its alkanes' fitted polynomials, issue #5): this
+ * guards a preset added later without them.
+ */
 function presetHasModels(
   name: GasPresetName,
   models: GasModelOptions,

@@ -1,14 +1,16 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import {
+  GAS_PRESET_NAMES,
   gasMixture,
   gasPreset,
   gasPresetModels,
   idealGas,
+  isGasPresetName,
   MOLAR_GAS_CONSTANT,
 } from "../../src/gas/gas.js";
 import { AIR_COMPOSITION, NASA7 } from "../../src/gas/gas-model-data.js";
-import type { SpeciesName } from "../../src/gas/gas-presets.js";
+import { NATURAL_GAS_COMPOSITION, SPECIES, type SpeciesName } from "../../src/gas/gas-presets.js";
 import type { Gas, Nasa7Species } from "../../src/gas/gas-types.js";
 import { nasa7Enthalpy, nasa7Entropy, nasa7HeatCapacity } from "../../src/gas/nasa7.js";
 import { gasState, type ThermoState, temperatureFromEnthalpy } from "../../src/gas/thermo.js";
@@ -25,31 +27,48 @@ function expectRelative(actual: number, expected: number, tolerance: number, wha
   }
 }
 
-/** The species record gasPreset attaches for one pure preset. */
+/**
+ * The species record gasPreset attaches for one pure preset, or, for a natural-gas component
+ * that is no preset of its own (the C2-C6 alkanes), the one the natural-gas preset carries.
+ */
 function nasaSpecies(name: SpeciesName): Nasa7Species {
-  const species = gasPreset(name as "nitrogen", { heatCapacity: "nasa7" }).heatCapacity?.species[0];
+  const natural = NATURAL_GAS_COMPOSITION.findIndex((part) => part.species === name);
+  const species = isGasPresetName(name)
+    ? gasPreset(name, { heatCapacity: "nasa7" }).heatCapacity?.species[0]
+    : gasPreset("natural-gas", { heatCapacity: "nasa7" }).heatCapacity?.species[natural];
   if (species === undefined) throw new Error(`no NASA data for ${name}`);
   return species;
 }
 
+/** Every species with NASA data; the presets among them; the fitted alkanes. */
 const NASA_SPECIES = Object.keys(NASA7) as SpeciesName[];
+const PRESET_SPECIES = NASA_SPECIES.filter((name) => isGasPresetName(name));
+const ALKANES = NASA_SPECIES.filter((name) => !isGasPresetName(name));
 
-describe("NASA 7-coefficient data (recalled from the Burcat database: closed-form checks)", () => {
-  it("has data for every preset but natural gas, whose C2-C6 alkanes have none (test/gas/real-gas-reference.test.ts, docs/validation.md)", () => {
-    for (const name of ["air", "nitrogen", "oxygen", "argon", "helium", "hydrogen"] as const) {
-      expect(gasPresetModels(name).heatCapacity).toEqual(["constant", "nasa7"]);
+describe("NASA 7-coefficient data (recalled Burcat sets; the alkanes fitted by machnet): closed-form checks", () => {
+  it("has data for every preset, natural gas through its alkanes' fitted polynomials (test/gas/real-gas-reference.test.ts, docs/validation.md)", () => {
+    for (const name of GAS_PRESET_NAMES) {
+      expect(gasPresetModels(name).heatCapacity, name).toEqual(["constant", "nasa7"]);
     }
-    expect(gasPresetModels("carbon-dioxide").heatCapacity).toContain("nasa7");
-    expect(gasPresetModels("methane").heatCapacity).toContain("nasa7");
-    expect(gasPresetModels("natural-gas").heatCapacity).toEqual(["constant"]);
-    expect(() => gasPreset("natural-gas", { heatCapacity: "nasa7" })).toThrow(
-      /"natural-gas" has no data for heatCapacity "nasa7"/,
+    expect(ALKANES).toEqual([
+      "ethane",
+      "propane",
+      "isobutane",
+      "n-butane",
+      "isopentane",
+      "n-pentane",
+      "n-hexane",
+    ]);
+    // Natural gas by mole fraction of its ten components, as air is of its four.
+    const natural = gasPreset("natural-gas", { heatCapacity: "nasa7" }).heatCapacity?.species;
+    expect(natural?.map((part) => part.moleFraction)).toEqual(
+      NATURAL_GAS_COMPOSITION.map((part) => part.molePercent / 100),
     );
   });
 
   it("(a) keeps cp, h and s continuous at the common temperature of the two ranges", () => {
-    // The fits are constrained to meet at 1000 K and printed to 9 significant figures, so the
-    // two ranges agree to about 1e-8 in cp/R, h/RT and s/R. Tolerance 1e-6: a mis-recalled
+    // The fits are constrained to meet at 1000 K (the fitted alkanes at 400 K) and printed to 9
+    // or 10 significant figures, so the two ranges agree to about 1e-8 in cp/R, h/RT and s/R. Tolerance 1e-6: a mis-recalled
     // digit down to about the 7th significant figure of any coefficient breaks it.
     for (const name of NASA_SPECIES) {
       const species = nasaSpecies(name);
@@ -83,6 +102,17 @@ describe("NASA 7-coefficient data (recalled from the Burcat database: closed-for
       hydrogen: [0, 0.01],
       "carbon-dioxide": [-393.51, 0.05],
       methane: [-74.87, 0.35],
+      // The fitted alkanes' a6 were set to the formation enthalpies that chemicals 1.5.2 gives
+      // by default (ATcT; CRC for the pentanes): checked here against another compilation, the
+      // API Technical Data Book values in chemicals 1.5.2 (Hfg(CAS, method="API_TDB_G")).
+      // Tolerance 0.4 kJ/mol: the two compilations differ by up to 0.37 (isobutane).
+      ethane: [-83.85, 0.4],
+      propane: [-104.69, 0.4],
+      isobutane: [-134.99, 0.4],
+      "n-butane": [-125.65, 0.4],
+      isopentane: [-153.7, 0.4],
+      "n-pentane": [-146.71, 0.4],
+      "n-hexane": [-166.95, 0.4],
     };
     for (const name of NASA_SPECIES) {
       const [expected, tolerance] = formation[name] ?? [Number.NaN, 0];
@@ -105,7 +135,7 @@ describe("NASA 7-coefficient data (recalled from the Burcat database: closed-for
     // The presets' cp are NIST-JANAF (N2, O2, H2) and Burcat (CH4, CO2) values at 298.15 K and
     // 5/2 Ru for Ar and He. Tolerance 0.1 %: the fits reproduce their tables near room
     // temperature to about that.
-    for (const name of NASA_SPECIES) {
+    for (const name of PRESET_SPECIES) {
       const preset = gasPreset(name as "nitrogen");
       const presetCp = preset.molarMass * preset.specificHeatCp;
       expectRelative(nasa7HeatCapacity(nasaSpecies(name), 298.15) * R, presetCp, 1e-3, name);
@@ -114,6 +144,19 @@ describe("NASA 7-coefficient data (recalled from the Burcat database: closed-for
       expectRelative(state.specificHeatCp, preset.specificHeatCp, 1e-3, `${name} gasState`);
       expect(Math.abs(state.enthalpy)).toBeLessThan(1e-9);
     }
+    // The alkanes' constant cp are Poling's CPIG values at 298.15 K (gas-presets.ts); the
+    // polynomials follow the reference equations' cp0, which differ from Poling by up to 0.36 %
+    // (propane: 73.34 against 73.60 J/(mol K)). Tolerance 0.4 %.
+    for (const name of ALKANES) {
+      const heat = SPECIES[name].heat;
+      const presetCp = "molarHeatCapacity" in heat ? heat.molarHeatCapacity : Number.NaN;
+      expectRelative(nasa7HeatCapacity(nasaSpecies(name), 298.15) * R, presetCp, 4e-3, name);
+    }
+    // The natural-gas mixture: its constant cp (Poling's values mixed) against nasa7's.
+    const natural = gasPreset("natural-gas");
+    const state = gasState(gasPreset("natural-gas", { heatCapacity: "nasa7" }), 1e5, 298.15);
+    expectRelative(state.specificHeatCp, natural.specificHeatCp, 1e-3, "natural gas gasState");
+    expect(Math.abs(state.enthalpy)).toBeLessThan(1e-9);
   });
 
   it("(e) matches NIST-JANAF cp and standard entropy (from memory)", () => {
@@ -168,7 +211,7 @@ describe("NASA 7-coefficient data (recalled from the Burcat database: closed-for
       argon: { cp: [[298.15, 20.786]], entropy: 154.846 },
       helium: { cp: [[298.15, 20.786]], entropy: 126.153 },
     };
-    for (const name of NASA_SPECIES) {
+    for (const name of PRESET_SPECIES) {
       const table = janaf[name];
       if (table === undefined) throw new Error(`no table for ${name}`);
       const species = nasaSpecies(name);
@@ -183,7 +226,8 @@ describe("NASA 7-coefficient data (recalled from the Burcat database: closed-for
   it("(e) matches the TRC ideal-gas cp correlations of chemicals 1.5.2 at 250-500 K", () => {
     // Independent library data (test/fixtures/gas/gas-reference.json, made by
     // make-gas-reference.py from chemicals.heat_capacity.TRC_gas_data). Tolerance 1 %: the
-    // TRC correlations are stated good to about 1 % of the tables they fit.
+    // TRC correlations are stated good to about 1 % of the tables they fit. Every species,
+    // the fitted alkanes too (an independent check of the CoolProp cp0 they were fitted to).
     const fixture = JSON.parse(
       readFileSync(new URL("../fixtures/gas/gas-reference.json", import.meta.url), "utf8"),
     ) as { species: Record<string, { cpTRC: Record<string, number | null> }> };
@@ -590,7 +634,7 @@ describe("documented examples (TSDoc @example in src/gas/thermo.ts, gas.ts, peng
       api.gasPreset("nitrogen", { equationOfState: "peng-robinson" }).equationOfState?.components[0]
         ?.criticalTemperature,
     ).toBe(126.2);
-    expect(api.gasPresetModels("natural-gas").heatCapacity).toEqual(["constant"]);
+    expect(api.gasPresetModels("natural-gas").heatCapacity).toEqual(["constant", "nasa7"]);
     expect(Math.abs(api.pengRobinsonKappa(0.011) - 0.39157)).toBeLessThan(5e-6);
     // kappa(omega) against the 1976 polynomial written out (closed form).
     expect(api.pengRobinsonKappa(0.2)).toBeCloseTo(0.37464 + 1.54226 * 0.2 - 0.26992 * 0.04, 14);

@@ -14,7 +14,7 @@ import { describe, expect, it } from "vitest";
 import { gasPreset, MOLAR_GAS_CONSTANT } from "../../src/gas/gas.js";
 import { CRITICAL, NASA7 } from "../../src/gas/gas-model-data.js";
 import type { SpeciesName } from "../../src/gas/gas-presets.js";
-import type { Gas, Nasa7HeatCapacity } from "../../src/gas/gas-types.js";
+import type { Gas, Nasa7HeatCapacity, Nasa7Species } from "../../src/gas/gas-types.js";
 import {
   nasa7Entropy,
   nasa7MixtureEnthalpy,
@@ -73,12 +73,9 @@ type PresetWithEquation =
 const PURE = Object.keys(fixture.pure) as PresetWithEquation[];
 const QUANTUM_GASES = new Set(["helium", "hydrogen"]);
 
-/** The preset with Peng-Robinson, and NASA cp(T) where it has them. */
+/** The preset with Peng-Robinson and NASA cp(T). */
 function realGas(name: PresetWithEquation | "natural-gas"): Gas {
-  return gasPreset(name, {
-    equationOfState: "peng-robinson",
-    ...(name === "natural-gas" ? {} : { heatCapacity: "nasa7" as const }),
-  });
+  return gasPreset(name, { equationOfState: "peng-robinson", heatCapacity: "nasa7" });
 }
 
 /** H - H_ig [J/mol] of gasState: its enthalpy less that of the same gas without the equation. */
@@ -174,7 +171,7 @@ function regionOf(label: string, row: ReferenceState): Region {
  *
  * Z and density: |Z_PR/Z_ref - 1| and |rho_ref/rho_PR - 1| (the same figure but for the molar
  * masses, which differ by 1e-5). Speed of sound and cp: |a_PR/a_ref - 1|, |cp_PR/cp_ref - 1|,
- * with machnet's NASA ideal-gas part (natural gas: its constant cp). Enthalpy departure: |(H - H_ig)_PR - (H - H_ig)_ref|
+ * with machnet's NASA ideal-gas part. Enthalpy departure: |(H - H_ig)_PR - (H - H_ig)_ref|
  * over the ideal-gas molar cp, in kelvin: the error it makes in the temperature after an
  * isenthalpic expansion to low pressure.
  */
@@ -239,12 +236,16 @@ describe("Peng-Robinson against the reference equations of state (CoolProp 8.0.0
     }
   });
 
-  it("gives cp within its band (the natural-gas preset: with its constant ideal-gas cp)", () => {
-    // The natural-gas preset has no NASA data: its ideal-gas cp is the 298.15 K value, and that
-    // alone is up to 6 % low at 350 K (measured 5.98 %, 10 bar); bound 6.5 %.
+  it("gives cp within its band (the natural-gas preset too, with its alkanes' fitted cp(T))", () => {
+    // The natural-gas mixture with NASA cp (issue #5; with its constant cp it was up to 6 % low at
+    // 350 K): measured 0.35 % to 10 bar and 0.94 % to 50 bar, in the classical bands; at 50-100
+    // bar 5.14 % low at 250 K and 100 bar, PR's own error at 1.28 times the mixture's
+    // pseudo-critical temperature (Kay's rule, 195 K), just outside the near-critical region of
+    // a pure fluid (methane there: 4.67 %). Its bound at 50-100 bar: 5.5 %.
     for (const { label, gas, row } of allStates()) {
       const cp = gasState(gas, row.p, row.T).specificHeatCp * gas.molarMass;
-      const bound = label === "natural-gas mixture" ? 0.065 : bounds(label, row).cp;
+      const denseNaturalGas = label === "natural-gas mixture" && row.p > 50e5;
+      const bound = denseNaturalGas ? 0.055 : bounds(label, row).cp;
       expectWithin(cp / row.cp_J_per_molK - 1, bound, `${where(label, row)} cp`);
     }
   });
@@ -358,8 +359,8 @@ function expectWithin(deviation: number, bound: number, what: string, unit?: str
  * parts, relative, for cp0 and for the changes of h0 and s0 from 298.15 K (integrals of cp0, so
  * bounded by the largest cp0 deviation on the way). 0.2 % confirms a recalled set of a preset
  * (the fits are stated good to about 0.1-0.2 % of the tables they fit). Hydrogen and methane do
- * not meet it: their bounds are the measured deviations rounded up (docs/validation.md). A
- * natural-gas component added later must meet 0.5 % (the rule of issue #5).
+ * not meet it: their bounds are the measured deviations rounded up (docs/validation.md). The
+ * natural-gas components (the fitted C2-C6 alkanes) must meet 0.5 % (the rule of issue #5).
  */
 function idealGasTolerance(name: string, temperature: number): number {
   if (name === "hydrogen") return temperature < 250 ? 0.01 : 0.004;
@@ -407,9 +408,10 @@ function nasaData(name: string): Nasa7HeatCapacity {
 describe("NASA 7-coefficient polynomials against the reference equations' ideal-gas cp0 (CoolProp 8.0.0)", () => {
   it("gives cp0(T), h0(T) - h0(298.15 K) and s0(T) - s0(298.15 K) of every NASA species and air at 200-1000 K", () => {
     // Inside 200-1000 K and the reference equation's own range (CO2 from its triple point
-    // 216.6 K; methane to 625 K, above which Setzmann-Wagner's cp0 is an extrapolation).
+    // 216.6 K; methane to 625 K, above which Setzmann-Wagner's cp0 is an extrapolation; the
+    // alkanes to 500-675 K).
     const names = [...Object.keys(NASA7), "air"];
-    expect(names.length).toBe(8);
+    expect(names.length).toBe(15);
     for (const name of names) {
       const reference = fixture.idealGas[name];
       if (reference === undefined) throw new Error(`${name}: not in the fixture`);
@@ -446,8 +448,95 @@ describe("NASA 7-coefficient polynomials against the reference equations' ideal-
           "J/(mol K)",
         );
       }
-      // 298.15 K and every 50 K of the range: 9 points for methane (200-600 K), 15 for CO2.
-      expect(count, name).toBeGreaterThanOrEqual(9);
+      // 298.15 K and every 50 K of the range: 8 points for isopentane (200-500 K), 15 for CO2.
+      expect(count, name).toBeGreaterThanOrEqual(8);
+    }
+  });
+});
+
+interface AlkaneFit {
+  equationOfState: string;
+  validUpTo_K: number;
+  lowTemperature: number;
+  commonTemperature: number;
+  highTemperature: number;
+  low: number[];
+  high: number[];
+  check: IdealGasRow[];
+}
+
+const alkaneFits = (
+  JSON.parse(
+    readFileSync(new URL("../fixtures/real-gas/fit-alkane-nasa7.json", import.meta.url), "utf8"),
+  ) as { species: Record<string, AlkaneFit> }
+).species;
+
+describe("the alkanes' fitted NASA 7-coefficient polynomials against CoolProp 8.0.0 cp0 (issue #5)", () => {
+  // test/fixtures/real-gas/fit-alkane-nasa7.py fits them to each reference equation's ideal-gas
+  // part; its "check" rows are CoolProp's own cp0, h0 and s0 (not the fit's), every 10 K.
+  const alkanes = Object.keys(NASA7).filter((name) => !(name in SPECIES_PRESETS));
+
+  it("carries the script's coefficients, fitted to the named equations over their ranges", () => {
+    expect(
+      Object.fromEntries(alkanes.map((name) => [name, alkaneFits[name]?.equationOfState])),
+    ).toEqual({
+      ethane: "Buecker-JPCRD-2006",
+      propane: "Lemmon-JCED-2009",
+      isobutane: "Buecker-JPCRD-2006B",
+      "n-butane": "Buecker-JPCRD-2006B",
+      isopentane: "Lemmon-JCED-2006",
+      "n-pentane": "Thol-FPE-2019-alkanes-pentane",
+      "n-hexane": "Thol-FPE-2019-alkanes-hexane",
+    });
+    for (const name of alkanes) {
+      const fit = alkaneFits[name] as AlkaneFit;
+      const data = NASA7[name as SpeciesName];
+      expect(data?.low, name).toEqual(fit.low);
+      expect(data?.high, name).toEqual(fit.high);
+      expect(data?.lowTemperature, name).toBe(200);
+      expect(data?.commonTemperature, name).toBe(fit.commonTemperature);
+      // The upper limit is the equation's own (CoolProp's Tmax): no extrapolated cp0 was fitted.
+      expect(data?.highTemperature, name).toBe(fit.validUpTo_K);
+    }
+  });
+
+  it("gives cp0, h0(T) - h0(298.15 K) and s0(T) - s0(298.15 K) every 10 K over 200 K to the equation's limit", () => {
+    // Issue #5's rule is 0.5 %. Measured: cp at most 0.037 % (n-hexane at 200 K, the end of
+    // the range); bound 0.05 %, so that a worse fit fails long before the rule. h0 and s0 are
+    // integrals of cp0 from 298.15 K, so their relative deviations are bounded by cp's
+    // (measured 7.7e-5 of h0 and s0, n-hexane); the same 0.05 %, plus 0.05 J/mol and 1e-4
+    // J/(mol K) where they pass through zero at 298.15 K.
+    const bound = 5e-4;
+    for (const name of alkanes) {
+      const fit = alkaneFits[name] as AlkaneFit;
+      const heatCapacity = nasaData(name);
+      const species = heatCapacity.species[0] as Nasa7Species;
+      expect(fit.check.length, name).toBeGreaterThanOrEqual(31);
+      for (const row of fit.check) {
+        const what = `${name} at ${row.T} K`;
+        const cp = nasa7MixtureHeatCapacity(heatCapacity, row.T) * MOLAR_GAS_CONSTANT;
+        expectWithin(cp / row.cp0_J_per_molK - 1, bound, `${what} cp0`);
+        const h = nasa7MixtureEnthalpy(heatCapacity, row.T) * MOLAR_GAS_CONSTANT;
+        const expectedH = row.h0_minus_h0_298_J_per_mol;
+        expectWithin(h - expectedH, bound * Math.abs(expectedH) + 0.05, `${what} h0`, "J/mol");
+        const s =
+          (nasa7Entropy(species, row.T) - nasa7Entropy(species, 298.15)) * MOLAR_GAS_CONSTANT;
+        const expectedS = row.s0_minus_s0_298_J_per_molK;
+        expectWithin(s - expectedS, bound * Math.abs(expectedS) + 1e-4, `${what} s0`, "J/(mol K)");
+      }
+    }
+  });
+
+  it("holds cp at its end value above the equation's limit, with h continued by it", () => {
+    // src/gas/nasa7.ts clamps: the polynomial is not used outside the range it was fitted on.
+    for (const name of alkanes) {
+      const heatCapacity = nasaData(name);
+      const top = (alkaneFits[name] as AlkaneFit).highTemperature;
+      const atTop = nasa7MixtureHeatCapacity(heatCapacity, top);
+      expect(nasa7MixtureHeatCapacity(heatCapacity, top + 200), name).toBe(atTop);
+      const rise =
+        nasa7MixtureEnthalpy(heatCapacity, top + 200) - nasa7MixtureEnthalpy(heatCapacity, top);
+      expectWithin(rise / (200 * atTop) - 1, 1e-12, `${name} h above ${top} K`);
     }
   });
 });

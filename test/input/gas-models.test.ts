@@ -100,25 +100,40 @@ describe("gas property models in the input document", () => {
     expect(plain.gas?.equationOfState).toBeUndefined();
   });
 
-  it("refuses a model that the gas has no data for, at the field or the component", () => {
-    expect(read({ preset: "natural-gas", heatCapacity: "nasa7" }).issues).toEqual([
-      expect.objectContaining({
-        code: "value",
-        path: "/gas/heatCapacity",
-        message: expect.stringMatching(
-          /"natural-gas" has no NASA 7-coefficient data .*air, nitrogen.*use "constant"/,
-        ),
-      }),
+  it("gives natural gas nasa7 (its alkanes' fitted polynomials), alone and in a mixture", () => {
+    // Issue #5: natural gas was refused until its C2-C6 alkanes had NASA data.
+    const natural = read({ preset: "natural-gas", heatCapacity: "nasa7" });
+    expect(natural.issues).toEqual([]);
+    const species = natural.gas?.heatCapacity?.species ?? [];
+    expect(species.map((part) => part.name)).toEqual([
+      "CH4",
+      "N2",
+      "CO2",
+      "C2H6",
+      "C3H8",
+      "C4H10",
+      "C4H10",
+      "C5H12",
+      "C5H12",
+      "C6H14",
     ]);
-    expect(
-      read({
-        components: [
-          { preset: "air", moleFraction: 0.5 },
-          { preset: "natural-gas", moleFraction: 0.5 },
-        ],
-        heatCapacity: "nasa7",
-      }).issues,
-    ).toEqual([expect.objectContaining({ code: "value", path: "/gas/components/1/preset" })]);
+    // Mole fractions of the AGA-8 Gulf Coast composition (96.5222 % methane), summing to 1.
+    expect(species[0]?.moleFraction).toBeCloseTo(0.965222, 6);
+    expect(species.reduce((sum, part) => sum + part.moleFraction, 0)).toBeCloseTo(1, 12);
+    const mixture = read({
+      components: [
+        { preset: "air", moleFraction: 0.5 },
+        { preset: "natural-gas", moleFraction: 0.5 },
+      ],
+      heatCapacity: "nasa7",
+      equationOfState: "peng-robinson",
+    });
+    expect(mixture.issues).toEqual([]);
+    expect(mixture.gas?.heatCapacity?.species.length).toBe(14);
+    expect(issuesOf({ preset: "natural-gas", heatCapacity: "nasa7" })).toEqual([]);
+  });
+
+  it("refuses a model that the gas has no data for", () => {
     expect(
       read({ molarMass: 0.03, gamma: 1.2, viscosity: 1e-5, heatCapacity: "nasa7" }).issues,
     ).toEqual([

@@ -30,11 +30,11 @@ function solved(document: NetworkDocument): NetworkResult {
 
 // Invented data: a cold and a hot nitrogen stream meeting at a tee, through short pipes with no
 // heat exchange (so each arrives with its own stagnation enthalpy).
-function tee(heatCapacity: "constant" | "nasa7"): NetworkDocument {
+function tee(heatCapacity: "constant" | "nasa7", preset = "nitrogen"): NetworkDocument {
   return {
-    name: "nitrogen tee",
+    name: `${preset} tee`,
     settings: { pipeModel: "heat-transfer" },
-    gas: { preset: "nitrogen", heatCapacity },
+    gas: { preset, heatCapacity },
     nodes: [
       { id: "COLD", kind: "reservoir", pressure: "5 bar", temperature: "250 K" },
       { id: "HOT", kind: "reservoir", pressure: "5 bar", temperature: "600 K" },
@@ -97,6 +97,20 @@ describe("junction mixing by enthalpy with cp(T)", () => {
     expect(expected - constantCp).toBeGreaterThan(0.5);
     expect(junction - constantCp).toBeGreaterThan(0.5);
     expect(Math.abs(result.balance.energyImbalance)).toBeLessThan(1e-9);
+  });
+
+  it("mixes natural gas (nasa7: its alkanes' fitted cp(T)) above the constant-cp mean, closing to 1e-9", () => {
+    // Natural gas is 96.5 % methane, whose cp rises by half between 250 and 600 K (34.2 to
+    // 52.7 J/(mol K)): the hot stream carries more enthalpy per kelvin, and the mixed
+    // temperature lies well above the flow-weighted mean (about 15 K for equal flows with cp
+    // linear in T; bound 5 K).
+    const result = solved(tee("nasa7", "natural-gas"));
+    const cold = edgeOf(result, "C").massFlow;
+    const hot = edgeOf(result, "H").massFlow;
+    const mean = (cold * 250 + hot * 600) / (cold + hot);
+    expect(nodeOf(result, "TEE").temperature - mean).toBeGreaterThan(5);
+    expect(Math.abs(result.balance.energyImbalance)).toBeLessThan(1e-9);
+    expect(result.balance.largestEnergyImbalance).toBeLessThan(1e-9);
   });
 
   it("mixes at the flow-weighted mean temperature with constant cp", () => {
@@ -234,6 +248,8 @@ describe("the network first law with cp(T) and with Peng-Robinson", () => {
     { preset: "methane", heatCapacity: "nasa7" },
     { preset: "methane", equationOfState: "peng-robinson" },
     { preset: "methane", heatCapacity: "nasa7", equationOfState: "peng-robinson" },
+    { preset: "natural-gas", heatCapacity: "nasa7" },
+    { preset: "natural-gas", heatCapacity: "nasa7", equationOfState: "peng-robinson" },
   ] as NetworkDocument["gas"][]) {
     it(`closes to 1e-9 with mixing, an injection, heat loss and a rise (${JSON.stringify(gas)})`, () => {
       const result = solved(fuelGas(gas));
@@ -289,6 +305,8 @@ describe("adiabatic and isothermal pipes, an orifice and a regulator with cp(T) 
     { preset: "methane", heatCapacity: "nasa7" },
     { preset: "methane", equationOfState: "peng-robinson" },
     { preset: "methane", heatCapacity: "nasa7", equationOfState: "peng-robinson" },
+    { preset: "natural-gas", heatCapacity: "nasa7" },
+    { preset: "natural-gas", heatCapacity: "nasa7", equationOfState: "peng-robinson" },
   ] as NetworkDocument["gas"][]) {
     it(`converges and closes mass and energy to 1e-9 (${JSON.stringify(gas)})`, () => {
       const result = solved(mixedModels(gas));
