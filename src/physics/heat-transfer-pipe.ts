@@ -118,6 +118,19 @@ export class HeatTransferScratch {
   readonly equationOfState: PengRobinsonValues = emptyPengRobinsonValues();
   /** Working record of the arrival-temperature inversions. */
   readonly arrivalState: ThermoState = emptyThermoState();
+  /** The pipe's heat exchange and the plenum's figures of the current run (see startRun). */
+  readonly exchange: HeatExchange = {
+    heatTransferPerLength: 0,
+    surroundingTemperature: 0,
+    rise: 0,
+  };
+  readonly plenum: PlenumFigures = {
+    kappa: 0,
+    gasConstant: 0,
+    enthalpy: 0,
+    enthalpyPressureSlope: 0,
+    specificHeatCp: 0,
+  };
   readonly entrance: Entrance = {
     pressure: 0,
     temperature: 0,
@@ -559,13 +572,56 @@ export interface HeatExchange {
   rise: number;
 }
 
-/** The heat-exchange record of a pipe geometry (zeros when the pipe has none). */
-export function heatExchangeOf(pipe: PipeGeometry): HeatExchange {
-  return {
-    heatTransferPerLength: pipe.heatTransferPerLength ?? 0,
-    surroundingTemperature: pipe.surroundingTemperature ?? 293.15,
-    rise: pipe.rise ?? 0,
-  };
+/** The heat-exchange record of a pipe geometry (zeros when the pipe has none), into `out`. */
+export function heatExchangeOf(
+  pipe: PipeGeometry,
+  out: HeatExchange = { heatTransferPerLength: 0, surroundingTemperature: 0, rise: 0 },
+): HeatExchange {
+  out.heatTransferPerLength = pipe.heatTransferPerLength ?? 0;
+  out.surroundingTemperature = pipe.surroundingTemperature ?? 293.15;
+  out.rise = pipe.rise ?? 0;
+  return out;
+}
+
+/** The plenum's figures a run starts from (see {@link startRun}). */
+interface PlenumFigures {
+  /** Isentropic exponent rho a^2 / p [-]. */
+  kappa: number;
+  /** Z R = p0 / (rho0 T0) [J/(kg K)]. */
+  gasConstant: number;
+  /** h0 [J/kg] and its slopes (dh/dp)_T [J/(kg Pa)] and cp [J/(kg K)]. */
+  enthalpy: number;
+  enthalpyPressureSlope: number;
+  specificHeatCp: number;
+}
+
+/**
+ * Sets the scratch up for runs of `pipe` from a plenum at (p0, T0) with the downstream end
+ * `rise` higher (gas, area, heat exchange, slope) and returns the plenum's figures (a record of
+ * the scratch: no allocation).
+ */
+function startRun(
+  scratch: HeatTransferScratch,
+  pipe: PipeGeometry,
+  gas: Gas,
+  p0: number,
+  t0: number,
+  rise: number,
+): PlenumFigures {
+  const exchange = heatExchangeOf(pipe, scratch.exchange);
+  scratch.gas = gas;
+  scratch.area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
+  scratch.heatPerLength = exchange.heatTransferPerLength;
+  scratch.surroundingTemperature = exchange.surroundingTemperature;
+  scratch.slope = rise / pipe.length;
+  const state = gasState(gas, p0, t0, scratch.state, scratch.equationOfState);
+  const plenum = scratch.plenum;
+  plenum.kappa = (state.density * state.soundSpeed * state.soundSpeed) / p0;
+  plenum.gasConstant = p0 / (state.density * t0);
+  plenum.enthalpy = state.enthalpy;
+  plenum.enthalpyPressureSlope = state.enthalpyPressureSlope;
+  plenum.specificHeatCp = state.specificHeatCp;
+  return plenum;
 }
 
 /**
@@ -620,17 +676,12 @@ export function evaluateHeatTransferPipe(
   context.friction = frictionLaw;
   context.pipe = pipe;
   const gas = thermoGas;
-  const area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
   const length = pipe.length;
-  const exchange = heatExchangeOf(pipe);
-  scratch.gas = gas;
-  scratch.area = area;
-  scratch.heatPerLength = exchange.heatTransferPerLength;
-  scratch.surroundingTemperature = exchange.surroundingTemperature;
-  scratch.slope = rise / length;
-  const plenum = gasState(gas, p0, t0, scratch.state, scratch.equationOfState);
-  const kappa = (plenum.density * plenum.soundSpeed * plenum.soundSpeed) / p0;
-  const gasConstant = p0 / (plenum.density * t0);
+  const plenum = startRun(scratch, pipe, gas, p0, t0, rise);
+  const area = scratch.area;
+  const exchange = scratch.exchange;
+  const kappa = plenum.kappa;
+  const gasConstant = plenum.gasConstant;
   const h0 = plenum.enthalpy;
   const dh0dp0 = plenum.enthalpyPressureSlope;
   const dh0dT0 = plenum.specificHeatCp;
@@ -1167,16 +1218,10 @@ export function heatTransferOutlet(
   out: PipeFlowEvaluation,
 ): boolean {
   const scratch = scratchOf(out);
-  const exchange = heatExchangeOf(pipe);
-  const area = 0.25 * Math.PI * pipe.diameter * pipe.diameter;
-  scratch.gas = thermoGas;
-  scratch.area = area;
-  scratch.heatPerLength = exchange.heatTransferPerLength;
-  scratch.surroundingTemperature = exchange.surroundingTemperature;
-  scratch.slope = rise / pipe.length;
-  const plenum = gasState(thermoGas, p0, t0, scratch.state, scratch.equationOfState);
-  const kappa = (plenum.density * plenum.soundSpeed * plenum.soundSpeed) / p0;
-  const gasConstant = p0 / (plenum.density * t0);
+  const plenum = startRun(scratch, pipe, thermoGas, p0, t0, rise);
+  const area = scratch.area;
+  const kappa = plenum.kappa;
+  const gasConstant = plenum.gasConstant;
   const h0 = plenum.enthalpy;
   const dh0dp0 = plenum.enthalpyPressureSlope;
   const dh0dT0 = plenum.specificHeatCp;
