@@ -76,10 +76,15 @@ function comparePaths(a: string, b: string): number {
 
 /** Escape one segment of a JSON Pointer (RFC 6901). */
 export function pointerSegment(segment: string | number): string {
-  return String(segment).replace(/~/g, "~0").replace(/\//g, "~1");
+  const text = String(segment);
+  // Most segments (indices, field names) have nothing to escape: they skip the replacements.
+  if (text.indexOf("~") < 0 && text.indexOf("/") < 0) return text;
+  return text.replace(/~/g, "~0").replace(/\//g, "~1");
 }
 
 /** Join segments into a JSON Pointer: `jsonPointer("edges", 3, "diameter")` is `/edges/3/diameter`. */
 export function jsonPointer(...segments: (string | number)[]): string {
-  return segments.map((s) => `/${pointerSegment(s)}`).join("");
+  let pointer = "";
+  for (const segment of segments) pointer += `/${pointerSegment(segment)}`;
+  return pointer;
 }

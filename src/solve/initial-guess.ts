@@ -1,12 +1,13 @@
 /**
- * A first guess for Newton: node pressures from a few rounds of the linearised p-squared law
- * (the "linear theory" of network analysis), then junction temperatures from the mixing balance
- * with those flows. Both are sparse linear solves on the Jacobian's own structure.
+ * A first guess for Newton: node pressures from the p-squared law of every edge solved for the
+ * whole network by Newton's method (the global gradient algorithm of network analysis), then
+ * junction temperatures from the mixing balance with those flows. Both are sparse linear solves
+ * on the Jacobian's own structure.
  *
  * p-squared law of an edge (isothermal ideal gas at low Mach, the logarithmic term dropped):
- *   p_u^2 - p_d^2 = k m |m|,  k = R T (fD L/D + K) / A^2.
- * Each round freezes |m| and solves the resulting linear network for P = p^2; |m| is then
- * averaged with the new flows (damping that keeps the rounds from oscillating). The first round
+ *   p_u^2 - p_d^2 = k m |m|,  k = R T (fD L/D + K + 1) / A^2,
+ * with fD at the Reynolds number of the edge's current flow. Each round linearises every edge at
+ * its flow and solves the linear network for P = p^2 (see the rounds below). The first round
  * starts every bridge at its exact flow from the demands (demandFixedFlows).
  */
 import {
@@ -14,25 +15,23 @@ import {
   firstGuessPressureCeiling,
   squaredLawResistance,
 } from "../physics/edge-flow.js";
-import { darcyFrictionFactor } from "../physics/friction.js";
+import { darcyFrictionWithSlope, type FrictionWithSlope } from "../physics/friction.js";
 import { reuseOfFactorsPays, solveWithFrozenFactors } from "./frozen-factor-gmres.js";
 import type { NetworkSystem } from "./network-system.js";
 import { NO_FLOW_WEIGHT, pressureUnknown } from "./network-system.js";
 import { type BlockLuFactorization, factorBlockMatrix, solveFactored } from "./sparse-block-lu.js";
 
 /**
- * Most linear-theory rounds, and the change of every edge's flow magnitude below which they stop
- * early: |change| <= ROUND_CHANGE_TOLERANCE (|m| + ROUND_CHANGE_FLOOR W), W the throughput (sum
- * of |demands|). A flow that starts too high only halves per round (the averaging), so a poor
- * start costs rounds; the demand-fixed flows below start the bridges exactly (a tree fed by one
- * reservoir stops after its first round, at the exact solution of the p-squared law) and a
- * loop's flow starts at most at LOOP_FLOW_CEILING W (a flow that starts too low comes up to
- * about half its size in one round; a loop between reservoirs at different pressures, or to a
- * vent, can carry more than W). Measured on the generated benchmark networks
- * (benchmarks/generate-network.js, seed 1; mixed, grid, tree): Newton then takes 7, 7, 4
- * iterations at 1,000 edges and 10, 7, 4 at 10,000, where the old start (every edge at a 10 %
- * drop of p^2 across it alone) took 8, 11, 6 and 10, 7, 9; over the hardening corpus the
- * directly converged networks take 3,839 iterations instead of 4,348, every status unchanged.
+ * Most rounds, and the change of every edge's flow below which they stop early:
+ * |change| <= ROUND_CHANGE_TOLERANCE (|m| + ROUND_CHANGE_FLOOR W), W the throughput (sum of
+ * |demands|). Newton's rounds converge quadratically once the flows have their signs; the
+ * demand-fixed flows below start the bridges exactly (a tree fed by one reservoir stops after
+ * its first round, at the exact solution of the p-squared law) and a loop's flow starts at most
+ * at LOOP_FLOW_CEILING W (a loop between reservoirs at different pressures, or to a vent, can
+ * carry more than W). Measured on the generated benchmark networks
+ * (benchmarks/generate-network.js, seed 1; mixed, grid, tree): Newton then takes 4, 6, 3
+ * iterations at 1,000 edges and 6, 5, 3 at 10,000, where the rounds before (secant rounds with
+ * the flows averaged and fD at Re = 1e6) left it 7, 7, 4 and 10, 7, 4.
  */
 const ROUNDS = 8;
 const ROUND_CHANGE_TOLERANCE = 1e-2;
@@ -41,6 +40,8 @@ const ROUND_CHANGE_FLOOR = 1e-2;
 const TREE_FLOW_FLOOR = 1e-6;
 /** Largest starting flow magnitude of an edge in a loop, over W. */
 const LOOP_FLOW_CEILING = 1;
+/** Reynolds number below which the first guess takes the friction factor at this one. */
+const SMALLEST_GUESS_REYNOLDS = 1;
 /**
  * Where reusing factors pays (src/solve/frozen-factor-gmres.ts) the rounds after the first solve by GMRES
  * with the first round's factors, to this relative residual (a first guess needs no more), and
@@ -70,30 +71,58 @@ export function initialGuess(system: NetworkSystem): Float64Array {
   const squaredScale = pMax * pMax;
 
   const resistance = new Float64Array(edgeCount);
-  const flowMagnitude = new Float64Array(edgeCount);
-  const signedFlow = new Float64Array(edgeCount);
+  // d ln(dP) / d ln|m| of each edge's law: 2 for a fixed resistance, less where friction falls
+  // with the Reynolds number (1 in laminar flow).
+  const lawExponent = new Float64Array(edgeCount).fill(2);
+  const flow = new Float64Array(edgeCount); // signed, from -> to
   const treeFlow = demandFixedFlows(system);
   let throughput = 0;
   for (let node = 0; node < nodeCount; node++)
     throughput += Math.abs(system.demand[node] as number);
-  const flowFloor = TREE_FLOW_FLOOR * throughput;
-  const changeFloor = ROUND_CHANGE_FLOOR * throughput;
-  for (let e = 0; e < edgeCount; e++) {
-    const element = system.elements[e];
-    if (element === undefined) continue;
-    resistance[e] = squaredLawResistance(element, rt, (relativeRoughness) =>
-      darcyFrictionFactor(1e6, relativeRoughness),
+  const viscosity = gas.viscosity(supplyTemperature);
+  const friction: FrictionWithSlope = { factor: 0, logSlope: 0, inverseRoot: Number.NaN };
+  /** The edge's p-squared resistance and law exponent at a flow magnitude (friction at its Re). */
+  const setResistance = (e: number, magnitude: number) => {
+    const element = system.elements[e] as EdgeElement;
+    if (element.kind !== "pipe" || !Number.isNaN(element.fixedFrictionFactor)) {
+      resistance[e] = squaredLawResistance(element, rt, () => 0);
+      return;
+    }
+    const reynolds = (4 * magnitude) / (Math.PI * element.diameter * viscosity);
+    darcyFrictionWithSlope(
+      Math.max(reynolds, SMALLEST_GUESS_REYNOLDS),
+      element.roughness / element.diameter,
+      friction,
     );
+    const frictionPart = friction.factor * (element.length / element.diameter);
+    const parameter = frictionPart + element.minorLoss + 1;
+    const area = 0.25 * Math.PI * element.diameter * element.diameter;
+    resistance[e] = (rt * parameter) / (area * area);
+    lawExponent[e] = 2 + (friction.logSlope * frictionPart) / parameter;
+  };
+  let largestOwnScale = 0;
+  for (let e = 0; e < edgeCount; e++) {
+    if (system.elements[e] === undefined) continue;
     // Flow that a 10 % drop of p^2 across this edge alone would carry: the edge's own scale.
+    setResistance(e, throughput > 0 ? throughput : 1);
     const ownScale = Math.sqrt((0.1 * squaredScale) / (resistance[e] as number));
+    largestOwnScale = Math.max(largestOwnScale, ownScale);
     const tree = treeFlow[e] as number;
     // Without demands (a network at rest, the start of the continuation) every edge its own.
-    flowMagnitude[e] = !(throughput > 0)
+    const magnitude = !(throughput > 0)
       ? ownScale
       : Number.isNaN(tree)
         ? Math.min(ownScale, LOOP_FLOW_CEILING * throughput)
-        : Math.max(Math.abs(tree), flowFloor);
+        : Math.max(Math.abs(tree), TREE_FLOW_FLOOR * throughput);
+    flow[e] = magnitude;
   }
+  // The network's flow scale: its throughput, or at rest (where only reservoirs at different
+  // pressures drive flows) the largest own scale. Floors of the flow magnitudes and of the
+  // change test are relative to it, so that an edge without flow (a dead end at rest) does not
+  // get a conductance many orders above the rest, which would spoil the linear solves.
+  const flowScale = throughput > 0 ? throughput : largestOwnScale;
+  const flowFloor = TREE_FLOW_FLOOR * flowScale;
+  const changeFloor = ROUND_CHANGE_FLOOR * flowScale;
 
   const squared = new Float64Array(nodeCount);
   for (let node = 0; node < nodeCount; node++) {
@@ -101,11 +130,24 @@ export function initialGuess(system: NetworkSystem): Float64Array {
   }
 
   const conductance = new Float64Array(edgeCount);
+  const offset = new Float64Array(edgeCount);
   const values = new Float64Array(4 * structure.blockCount);
   const rhs = new Float64Array(2 * junctionCount);
   let kept: BlockLuFactorization | undefined;
   for (let round = 0; round < ROUNDS; round++) {
-    let largestChange = 0;
+    // Each edge linearised at its flow m0 as m = c (P_from - P_to) + o. The first round, whose
+    // flows have no signs yet, takes the secant through zero (c = 1/(k |m0|), o = 0, the linear
+    // theory); later rounds the tangent (Newton: c = 1/(n k |m0|), o = m0 (1 - 1/n), n the law's
+    // exponent), the global gradient algorithm of E. Todini and S. Pilati, "A gradient algorithm
+    // for the analysis of pipe networks" (1988), with the friction factor at each round's flows.
+    for (let e = 0; e < edgeCount; e++) {
+      if (system.elements[e] === undefined) continue;
+      const magnitude = Math.max(Math.abs(flow[e] as number), flowFloor, 1e-12);
+      setResistance(e, magnitude);
+      const exponent = round === 0 ? 1 : (lawExponent[e] as number);
+      conductance[e] = squaredScale / (exponent * (resistance[e] as number) * magnitude);
+      offset[e] = round === 0 ? 0 : (flow[e] as number) * (1 - 1 / exponent);
+    }
     values.fill(0);
     for (let j = 0; j < junctionCount; j++) {
       values[4 * j + 3] = 1; // temperature slot unused here
@@ -115,21 +157,23 @@ export function initialGuess(system: NetworkSystem): Float64Array {
     for (let e = 0; e < edgeCount; e++) {
       const from = model.edgeFrom[e] as number;
       const to = model.edgeTo[e] as number;
-      conductance[e] =
-        squaredScale / ((resistance[e] as number) * Math.max(flowMagnitude[e] as number, 1e-12));
       const c = conductance[e] as number;
+      const o = offset[e] as number;
       const a = model.unknownIndex[from] as number;
       const b = model.unknownIndex[to] as number;
-      // Row of each junction end: sum c (P_other - P_self) = demand.
+      // Row of each junction end: inflow = demand, the inflow of an edge being
+      // +-(c (P_from - P_to) + o).
       if (a >= 0) {
         addAt(values, 4 * (system.edgeBlocks[4 * e] as number), -c);
         if (b >= 0) addAt(values, 4 * (system.edgeBlocks[4 * e + 1] as number), c);
         else rhs[2 * a] = (rhs[2 * a] as number) - (c * (squared[to] as number)) / squaredScale;
+        rhs[2 * a] = (rhs[2 * a] as number) + o;
       }
       if (b >= 0) {
         addAt(values, 4 * (system.edgeBlocks[4 * e + 3] as number), -c);
         if (a >= 0) addAt(values, 4 * (system.edgeBlocks[4 * e + 2] as number), c);
         else rhs[2 * b] = (rhs[2 * b] as number) - (c * (squared[from] as number)) / squaredScale;
+        rhs[2 * b] = (rhs[2 * b] as number) - o;
       }
     }
     let solution =
@@ -148,19 +192,25 @@ export function initialGuess(system: NetworkSystem): Float64Array {
       const value = (solution[2 * j] as number) * squaredScale;
       squared[node] = Number.isFinite(value) ? Math.max(value, floor) : floor;
     }
+    let largestChange = 0;
     for (let e = 0; e < edgeCount; e++) {
+      if (system.elements[e] === undefined) continue;
       const from = model.edgeFrom[e] as number;
       const to = model.edgeTo[e] as number;
       const difference = (squared[from] as number) - (squared[to] as number);
-      const flow = ((conductance[e] as number) * difference) / squaredScale;
-      signedFlow[e] = flow;
-      const previous = flowMagnitude[e] as number;
-      const next = 0.5 * (previous + Math.abs(flow));
-      flowMagnitude[e] = next;
-      largestChange = Math.max(largestChange, Math.abs(next - previous) / (previous + changeFloor));
+      const next = ((conductance[e] as number) * difference) / squaredScale + (offset[e] as number);
+      const previous = flow[e] as number;
+      // The first round's flows have no sign to compare with: their magnitudes are compared.
+      const change = round === 0 ? Math.abs(next) - Math.abs(previous) : next - previous;
+      largestChange = Math.max(
+        largestChange,
+        Math.abs(change) / (Math.abs(previous) + changeFloor),
+      );
+      flow[e] = next;
     }
     if (largestChange <= ROUND_CHANGE_TOLERANCE) break;
   }
+  const signedFlow = flow;
 
   // A regulator's downstream junction no higher than its band: above it the regulator is closed
   // and its flow does not respond to pressure, so Newton could not leave such a guess.

@@ -638,15 +638,20 @@ export function factorBlockMatrix(
       const to = panel + column * lead;
       for (let row = 0; row < lead; row++) lower[to + row] = front[row * lead + column] as number;
     }
-    upper.set(front.subarray(0, 2 * width * lead), panel);
+    // Copied by plain loops: a subarray view per row is an object to allocate and collect, and
+    // most fronts of a network are small (a tree's have 2 to 4 rows).
+    const upperLength = 2 * width * lead;
+    for (let k = 0; k < upperLength; k++) upper[panel + k] = front[k] as number;
     // Push the Schur complement (the trailing 2 r x 2 r) for the parent.
     const rows = m - width;
     updateAt[s] = top;
-    for (let row = 0; row < 2 * rows; row++) {
+    const updateLead = 2 * rows;
+    for (let row = 0; row < updateLead; row++) {
       const from = (2 * width + row) * lead + 2 * width;
-      stack.set(front.subarray(from, from + 2 * rows), top + row * 2 * rows);
+      const to = top + row * updateLead;
+      for (let k = 0; k < updateLead; k++) stack[to + k] = front[from + k] as number;
     }
-    top += 4 * rows * rows;
+    top += updateLead * updateLead;
   }
   return { structure, lower, upper, pivotInverse, perturbedPivots };
 }
