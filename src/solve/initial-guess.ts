@@ -16,10 +16,13 @@ import {
   squaredLawResistance,
 } from "../physics/edge-flow.js";
 import { darcyFrictionWithSlope, type FrictionWithSlope } from "../physics/friction.js";
-import { reuseOfFactorsPays, solveWithFrozenFactors } from "./frozen-factor-gmres.js";
 import type { NetworkSystem } from "./network-system.js";
 import { NO_FLOW_WEIGHT, pressureUnknown } from "./network-system.js";
-import { type BlockLuFactorization, factorBlockMatrix, solveFactored } from "./sparse-block-lu.js";
+import {
+  factorScalarMatrix,
+  type ScalarLuFactorization,
+  solveScalarFactored,
+} from "./sparse-scalar-lu.js";
 
 /**
  * Most rounds, and the change of every edge's flow below which they stop early:
@@ -42,13 +45,6 @@ const TREE_FLOW_FLOOR = 1e-6;
 const LOOP_FLOW_CEILING = 1;
 /** Reynolds number below which the first guess takes the friction factor at this one. */
 const SMALLEST_GUESS_REYNOLDS = 1;
-/**
- * Where reusing factors pays (src/solve/frozen-factor-gmres.ts) the rounds after the first solve by GMRES
- * with the first round's factors, to this relative residual (a first guess needs no more), and
- * factor again only when 12 GMRES iterations do not reach it.
- */
-const FROZEN_ROUND_TOLERANCE = 1e-6;
-const FROZEN_ROUND_ITERATIONS = 12;
 
 /** Scaled unknowns of a first guess, 2 per junction [p / pScale - 1, T / TScale]. */
 export function initialGuess(system: NetworkSystem): Float64Array {
@@ -131,9 +127,10 @@ export function initialGuess(system: NetworkSystem): Float64Array {
 
   const conductance = new Float64Array(edgeCount);
   const offset = new Float64Array(edgeCount);
-  const values = new Float64Array(4 * structure.blockCount);
-  const rhs = new Float64Array(2 * junctionCount);
-  let kept: BlockLuFactorization | undefined;
+  // One number per block of the Jacobian's pattern and per junction: scalar systems.
+  const values = new Float64Array(structure.blockCount);
+  const rhs = new Float64Array(junctionCount);
+  let kept: ScalarLuFactorization | undefined;
   for (let round = 0; round < ROUNDS; round++) {
     // Each edge linearised at its flow m0 as m = c (P_from - P_to) + o. The first round, whose
     // flows have no signs yet, takes the secant through zero (c = 1/(k |m0|), o = 0, the linear
@@ -150,9 +147,8 @@ export function initialGuess(system: NetworkSystem): Float64Array {
     }
     values.fill(0);
     for (let j = 0; j < junctionCount; j++) {
-      values[4 * j + 3] = 1; // temperature slot unused here
       const node = model.junctionNodes[j] as number;
-      rhs[2 * j] = system.demand[node] as number;
+      rhs[j] = system.demand[node] as number;
     }
     for (let e = 0; e < edgeCount; e++) {
       const from = model.edgeFrom[e] as number;
@@ -164,32 +160,24 @@ export function initialGuess(system: NetworkSystem): Float64Array {
       // Row of each junction end: inflow = demand, the inflow of an edge being
       // +-(c (P_from - P_to) + o).
       if (a >= 0) {
-        addAt(values, 4 * (system.edgeBlocks[4 * e] as number), -c);
-        if (b >= 0) addAt(values, 4 * (system.edgeBlocks[4 * e + 1] as number), c);
-        else rhs[2 * a] = (rhs[2 * a] as number) - (c * (squared[to] as number)) / squaredScale;
-        rhs[2 * a] = (rhs[2 * a] as number) + o;
+        addAt(values, system.edgeBlocks[4 * e] as number, -c);
+        if (b >= 0) addAt(values, system.edgeBlocks[4 * e + 1] as number, c);
+        else rhs[a] = (rhs[a] as number) - (c * (squared[to] as number)) / squaredScale;
+        rhs[a] = (rhs[a] as number) + o;
       }
       if (b >= 0) {
-        addAt(values, 4 * (system.edgeBlocks[4 * e + 3] as number), -c);
-        if (a >= 0) addAt(values, 4 * (system.edgeBlocks[4 * e + 2] as number), c);
-        else rhs[2 * b] = (rhs[2 * b] as number) - (c * (squared[from] as number)) / squaredScale;
-        rhs[2 * b] = (rhs[2 * b] as number) - o;
+        addAt(values, system.edgeBlocks[4 * e + 3] as number, -c);
+        if (a >= 0) addAt(values, system.edgeBlocks[4 * e + 2] as number, c);
+        else rhs[b] = (rhs[b] as number) - (c * (squared[from] as number)) / squaredScale;
+        rhs[b] = (rhs[b] as number) - o;
       }
     }
-    let solution =
-      kept === undefined
-        ? undefined
-        : solveWithFrozenFactors(values, kept, rhs, FROZEN_ROUND_TOLERANCE, FROZEN_ROUND_ITERATIONS)
-            .x;
-    if (solution === undefined) {
-      const factors = factorBlockMatrix(structure, values, kept);
-      if (reuseOfFactorsPays(structure)) kept = factors;
-      solution = solveFactored(factors, rhs);
-    }
+    kept = factorScalarMatrix(structure, values, kept);
+    const solution = solveScalarFactored(kept, rhs);
     const floor = (0.05 * pMin) ** 2;
     for (let j = 0; j < junctionCount; j++) {
       const node = model.junctionNodes[j] as number;
-      const value = (solution[2 * j] as number) * squaredScale;
+      const value = (solution[j] as number) * squaredScale;
       squared[node] = Number.isFinite(value) ? Math.max(value, floor) : floor;
     }
     let largestChange = 0;
@@ -243,9 +231,8 @@ export function initialGuess(system: NetworkSystem): Float64Array {
     const node = model.junctionNodes[j] as number;
     const demand = system.demand[node] as number;
     const scale = diagonal[j] as number;
-    values[4 * j] = 1; // pressure slot unused here
-    values[4 * j + 3] = -1;
-    rhs[2 * j + 1] =
+    values[j] = -1;
+    rhs[j] =
       -(weight * supplyTemperature) / scale -
       (demand < 0 ? (-demand * (system.injectionTemperature[node] as number)) / scale : 0);
   }
@@ -262,19 +249,18 @@ export function initialGuess(system: NetworkSystem): Float64Array {
     const share = Math.abs(flow) / (diagonal[d] as number);
     if (u >= 0) {
       const block = system.edgeBlocks[4 * e + (flow > 0 ? 2 : 1)] as number;
-      values[4 * block + 3] = (values[4 * block + 3] as number) + share;
+      values[block] = (values[block] as number) + share;
     } else {
-      rhs[2 * d + 1] =
-        (rhs[2 * d + 1] as number) - share * (system.fixedTemperature[upstream] as number);
+      rhs[d] = (rhs[d] as number) - share * (system.fixedTemperature[upstream] as number);
     }
   }
-  const temperatures = solveFactored(factorBlockMatrix(structure, values), rhs);
+  const temperatures = solveScalarFactored(factorScalarMatrix(structure, values, kept), rhs);
 
   const x = new Float64Array(2 * junctionCount);
   for (let j = 0; j < junctionCount; j++) {
     const node = model.junctionNodes[j] as number;
     x[2 * j] = pressureUnknown(system, j, Math.sqrt(squared[node] as number));
-    const t = temperatures[2 * j + 1] as number;
+    const t = temperatures[j] as number;
     x[2 * j + 1] = (Number.isFinite(t) && t > 0 ? t : supplyTemperature) / system.temperatureScale;
   }
   return x;

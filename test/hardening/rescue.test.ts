@@ -69,13 +69,17 @@ function expectSameSolution(rescued: NetworkResult, direct: NetworkResult, label
     expect(Math.abs((other?.pressure as number) / node.pressure - 1), label).toBeLessThan(1e-9);
   }
   const edges = new Map(direct.edges.map((edge) => [edge.id, edge]));
+  // Flows to ten times the mass tolerance (1e-9 of the throughput), or ten times the larger
+  // mass residual either solve was accepted at, where the flows' round-off relaxed it: a ring
+  // whose pipes drop 0.004 to 0.08 Pa at some bar (seed 820) has flows known to about 1e-8 of
+  // themselves only (docs/model.md, convergence).
+  const allowed = 10 * Math.max(1e-9, rescued.residuals.mass, direct.residuals.mass);
   for (const edge of rescued.edges) {
     const other = edges.get(edge.id);
-    // Flows to 1e-8 of the throughput: ten times the mass tolerance.
     expect(
       Math.abs((other?.massFlow as number) - edge.massFlow) / rescued.balance.throughput,
       label,
-    ).toBeLessThan(1e-8);
+    ).toBeLessThan(allowed);
   }
 }
 

@@ -15,81 +15,15 @@ import {
   factorBlockMatrix,
   solveFactored,
 } from "../../src/solve/sparse-block-lu.js";
-
-/** Small deterministic generator (mulberry32) so every case is reproducible from its seed. */
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-/** Dense Gaussian elimination with partial pivoting: the independent reference. */
-function denseSolve(matrix: number[][], rhs: number[]): number[] {
-  const n = rhs.length;
-  const a = matrix.map((row, i) => [...row, rhs[i] as number]);
-  for (let k = 0; k < n; k++) {
-    let best = k;
-    for (let i = k + 1; i < n; i++) {
-      if (Math.abs(a[i]?.[k] as number) > Math.abs(a[best]?.[k] as number)) best = i;
-    }
-    [a[k], a[best]] = [a[best] as number[], a[k] as number[]];
-    const pivotRow = a[k] as number[];
-    for (let i = k + 1; i < n; i++) {
-      const row = a[i] as number[];
-      const factor = (row[k] as number) / (pivotRow[k] as number);
-      for (let j = k; j <= n; j++) row[j] = (row[j] as number) - factor * (pivotRow[j] as number);
-    }
-  }
-  const x = new Array<number>(n).fill(0);
-  for (let i = n - 1; i >= 0; i--) {
-    const row = a[i] as number[];
-    let sum = row[n] as number;
-    for (let j = i + 1; j < n; j++) sum -= (row[j] as number) * (x[j] as number);
-    x[i] = sum / (row[i] as number);
-  }
-  return x;
-}
-
-type Graph = { size: number; edges: [number, number][] };
-
-function treeGraph(size: number, rand: () => number): Graph {
-  const edges: [number, number][] = [];
-  for (let i = 1; i < size; i++) edges.push([Math.floor(rand() * i), i]);
-  return { size, edges };
-}
-
-function gridGraph(rows: number, columns: number): Graph {
-  const edges: [number, number][] = [];
-  for (let r = 0; r < rows; r++) {
-    for (let c = 0; c < columns; c++) {
-      const i = r * columns + c;
-      if (c + 1 < columns) edges.push([i, i + 1]);
-      if (r + 1 < rows) edges.push([i, i + columns]);
-    }
-  }
-  return { size: rows * columns, edges };
-}
-
-function completeGraph(size: number): Graph {
-  const edges: [number, number][] = [];
-  for (let i = 0; i < size; i++) for (let j = i + 1; j < size; j++) edges.push([i, j]);
-  return { size, edges };
-}
-
-function randomGraph(size: number, extra: number, rand: () => number): Graph {
-  const graph = treeGraph(size, rand);
-  for (let e = 0; e < extra; e++) {
-    const i = Math.floor(rand() * size);
-    const j = Math.floor(rand() * size);
-    if (i !== j) graph.edges.push([i, j]);
-  }
-  return graph;
-}
+import {
+  completeGraph,
+  denseSolve,
+  type Graph,
+  gridGraph,
+  random,
+  randomGraph,
+  treeGraph,
+} from "./sparse-matrix-cases.js";
 
 /** Build a random non-symmetric block matrix on the graph, sparse and dense forms. */
 function buildCase(graph: Graph, rand: () => number) {
@@ -447,9 +381,14 @@ describe("sparse solve of network Jacobians against a dense solve", () => {
       const x = solveFactored(factors, rhs);
       const dense = denseOf(system.structure, jacobian);
       // Backward error (Oettli and Prager, Numer. Math. 6 (1964) 405): the smallest relative
-      // change of the matrix and right-hand side entries that makes x exact. A stable direct
-      // solve in double precision gives a few units of round-off times the row length.
-      expect(backwardError(dense, [...rhs], [...x])).toBeLessThan(1e-13);
+      // change of the matrix and right-hand side entries that makes x exact. LU without row
+      // exchanges is backward stable to gamma_n |L||U| (N. J. Higham, Accuracy and Stability of
+      // Numerical Algorithms, 2nd ed., SIAM, 2002, theorem 9.3): a few units of round-off times
+      // the row length where the factors do not grow, 1e-13 here. The ill-conditioned ones get
+      // 1e-12: their factors grow (near-choke-38-edges at its first guess: 1.6e-13).
+      expect(backwardError(dense, [...rhs], [...x])).toBeLessThan(
+        illConditioned.has(name) ? 1e-12 : 1e-13,
+      );
       if (illConditioned.has(name)) return;
       const reference = denseSolve(dense, [...rhs]);
       const scale = Math.max(...reference.map(Math.abs));
