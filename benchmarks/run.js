@@ -168,9 +168,17 @@ async function child(edges, topology, seed) {
   const { buildNetwork } = await import("../dist/src/model/build-network.js");
   const system = await import("../dist/src/solve/network-system.js");
   const document = generateNetwork({ edges, seed, topology });
-  // Warm the process (JIT, schema compilation) on another network: "cold" below means a solve
-  // from no previous solution, not a cold JavaScript engine.
-  solveNetwork(generateNetwork({ edges: 300, seed: seed + 1000, topology: "mixed" }));
+  // Warm the process (JIT) on other networks, as an app or a study that solves many networks
+  // is: nine of 2,000 edges, three of each topology with other seeds. "Cold" below means a
+  // solve from no previous solution, not a cold JavaScript engine (whose first large solve
+  // takes about 1.5 times as long while the engine still compiles).
+  for (const warmTopology of ["tree", "mixed", "grid"]) {
+    for (let k = 0; k < 3; k++) {
+      solveNetwork(
+        generateNetwork({ edges: 2000, seed: seed + 1000 + k, topology: warmTopology }),
+      );
+    }
+  }
   const started = performance.now();
   const result = solveNetwork(document);
   const solveMs = performance.now() - started;
