@@ -31,6 +31,7 @@
  */
 import { minimumDegreeOrdering, nestedDissectionOrdering } from "./fill-reducing-ordering.js";
 import type { GmresWorkspace } from "./frozen-factor-gmres.js";
+import type { ScalarLayout } from "./sparse-scalar-lu.js";
 
 /** Structure of a block matrix: `neighbours[i]` lists the blocks j != i with A_ij != 0. */
 export interface BlockPattern {
@@ -99,6 +100,11 @@ export interface BlockLuStructure {
   gmresWorkspace?: GmresWorkspace;
   /** Working memory of the numeric factorization, made on its first use; not state either. */
   factorWorkspace?: { front: Float64Array; stack: Float64Array; updateAt: Int32Array };
+  /**
+   * Offsets and working memory of scalar factorizations on this structure
+   * (src/solve/sparse-scalar-lu.ts), made on their first use; not state either.
+   */
+  scalarLayout?: ScalarLayout;
 }
 
 /** A numeric factorization, ready for solves. */

@@ -32,8 +32,8 @@ export interface ScalarLuFactorization {
   perturbedPivots: number[];
 }
 
-/** Scalar offsets derived once per structure from its block layout (not state: a cache). */
-interface ScalarLayout {
+/** Scalar offsets derived once per structure from its block layout, and working memory. */
+export interface ScalarLayout {
   panelStart: Int32Array;
   assemblyTarget: Int32Array;
   front: Float64Array;
@@ -41,16 +41,14 @@ interface ScalarLayout {
   updateAt: Int32Array;
 }
 
-const layouts = new WeakMap<BlockLuStructure, ScalarLayout>();
-
 /**
  * The scalar layout of a block structure: panel offsets (m w numbers per supernode instead of
  * 4 m w), assembly targets in a front of leading dimension m (a block target 2 i (2 m) + 2 j is
- * i m + j), and working memory. Kept per structure in a WeakMap so that the structure's own
- * type does not change; what it holds means nothing between factorizations.
+ * i m + j), and working memory, made on first use and kept on the structure (as its block
+ * factorization's workspace is); what it holds means nothing between factorizations.
  */
 function scalarLayout(structure: BlockLuStructure): ScalarLayout {
-  const known = layouts.get(structure);
+  const known = structure.scalarLayout;
   if (known !== undefined) return known;
   const { supernodeCount, frontStart, assemblyStart } = structure;
   const panelStart = new Int32Array(supernodeCount + 1);
@@ -73,7 +71,7 @@ function scalarLayout(structure: BlockLuStructure): ScalarLayout {
     stack: new Float64Array(structure.stackCapacity / 4),
     updateAt: new Int32Array(supernodeCount),
   };
-  layouts.set(structure, layout);
+  structure.scalarLayout = layout;
   return layout;
 }
 
