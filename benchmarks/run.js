@@ -174,9 +174,7 @@ async function child(edges, topology, seed) {
   // takes about 1.5 times as long while the engine still compiles).
   for (const warmTopology of ["tree", "mixed", "grid"]) {
     for (let k = 0; k < 3; k++) {
-      solveNetwork(
-        generateNetwork({ edges: 2000, seed: seed + 1000 + k, topology: warmTopology }),
-      );
+      solveNetwork(generateNetwork({ edges: 2000, seed: seed + 1000 + k, topology: warmTopology }));
     }
   }
   const started = performance.now();
