@@ -21,9 +21,10 @@ import {
 } from "./sparse-block-lu.js";
 
 /**
- * Networks with at least this many junctions reuse factors through GMRES (Newton steps and the
- * rounds of the first guess); smaller ones factor every matrix, which costs less there than the
- * edge evaluations, and so solve exactly as before this module existed.
+ * Networks with at least this many junctions reuse factors through GMRES in their Newton steps
+ * (the first guess factors its scalar systems each round: src/solve/sparse-scalar-lu.ts);
+ * smaller ones factor every matrix, which costs less there than the edge evaluations, and so
+ * solve exactly as before this module existed.
  */
 export const FROZEN_FACTOR_MIN_JUNCTIONS = 1500;
 
