@@ -185,8 +185,19 @@ export interface SystemEvaluation {
   throughput: number;
 }
 
-/** Build the constant parts of a network's system. */
-export function createNetworkSystem(model: NetworkModel): NetworkSystem {
+/**
+ * A holder for the sparse structure of a Jacobian (its ordering and symbolic factorization),
+ * kept by a caller between solves of networks of one layout, such as the cases of a study (the
+ * same nodes and edges with other values): a system built with it takes the structure held
+ * there when its pattern is the same, and otherwise analyses its own and leaves that there.
+ * The solution does not depend on it; only the analysis is saved.
+ */
+export interface StructureHolder {
+  structure?: BlockLuStructure;
+}
+
+/** Build the constant parts of a network's system (see {@link StructureHolder}). */
+export function createNetworkSystem(model: NetworkModel, holder?: StructureHolder): NetworkSystem {
   const doc = model.document;
   const gasData = doc.gas;
   const gas = pipeGas(gasData);
@@ -244,7 +255,12 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
     (neighbours[a] as number[]).push(b);
     (neighbours[b] as number[]).push(a);
   }
-  const structure = analyzeBlockPattern({ size: junctionCount, neighbours });
+  const held = holder?.structure;
+  const structure =
+    held !== undefined && hasPattern(held, neighbours)
+      ? held
+      : analyzeBlockPattern({ size: junctionCount, neighbours });
+  if (holder !== undefined) holder.structure = structure;
   const edgeBlocks = new Int32Array(4 * model.edgeFrom.length).fill(-1);
   for (let e = 0; e < model.edgeFrom.length; e++) {
     const a = model.unknownIndex[model.edgeFrom[e] as number] as number;
@@ -280,6 +296,25 @@ export function createNetworkSystem(model: NetworkModel): NetworkSystem {
         : { state: emptyThermoState(), equationOfState: emptyPengRobinsonValues() },
     scratch: createEvaluationScratch(model.edgeFrom.length, nodeCount, junctionCount),
   };
+}
+
+/**
+ * Whether a structure was analysed for exactly this pattern: as many rows, and each row's
+ * neighbours (deduplicated, in any order) the structure's own.
+ */
+function hasPattern(
+  structure: BlockLuStructure,
+  neighbours: readonly (readonly number[])[],
+): boolean {
+  if (structure.size !== neighbours.length) return false;
+  for (let i = 0; i < neighbours.length; i++) {
+    const row = neighbours[i] as readonly number[];
+    const stored =
+      (structure.adjacencyStart[i + 1] as number) - (structure.adjacencyStart[i] as number);
+    if (row.length !== stored) return false;
+    for (const j of row) if (structure.blockIndex(i, j) < 0) return false;
+  }
+  return true;
 }
 
 /**

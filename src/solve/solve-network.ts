@@ -18,6 +18,7 @@ import {
   evaluateSystem,
   type NetworkSystem,
   pressureUnknown,
+  type StructureHolder,
   withPressureReferences,
 } from "./network-system.js";
 import { type NewtonOutcome, newtonSolve, ROUND_OFF_CEILING } from "./newton.js";
@@ -42,6 +43,14 @@ export interface SolveOptions {
    * temperatures are the first iterate.
    */
   initialResult?: Pick<NetworkResult, "nodes">;
+}
+
+/**
+ * Options of the solves inside machnet (studies, design questions): {@link SolveOptions} and a
+ * holder in which consecutive solves of one network layout share their sparse structure.
+ */
+export interface InternalSolveOptions extends SolveOptions {
+  structureHolder?: StructureHolder;
 }
 
 /** Thrown when the solver's own independent check of a "converged" state fails: a defect. */
@@ -90,7 +99,7 @@ export function modelOf(checked: CheckedDocument): NetworkModel {
 /** Solve a document that has already been read and checked. */
 export function solveCheckedDocument(
   checked: CheckedDocument,
-  options: SolveOptions = {},
+  options: InternalSolveOptions = {},
 ): NetworkResult {
   return solveWithState(checked, options).result;
 }
@@ -105,7 +114,10 @@ export interface SolvedState {
 }
 
 /** Solve a checked document and keep the solver's state (internal API). */
-export function solveWithState(checked: CheckedDocument, options: SolveOptions = {}): SolvedState {
+export function solveWithState(
+  checked: CheckedDocument,
+  options: InternalSolveOptions = {},
+): SolvedState {
   const settings = checked.settings;
   const limitMs =
     options.timeLimitMs ??
@@ -119,7 +131,7 @@ export function solveWithState(checked: CheckedDocument, options: SolveOptions =
     ...(limitMs !== undefined && now !== undefined ? { deadline: now() + limitMs, now } : {}),
   };
   const model = modelOf(checked);
-  const built = createNetworkSystem(model);
+  const built = createNetworkSystem(model, options.structureHolder);
   const guess = options.initialResult
     ? (stateFromResult(built, options.initialResult) ?? initialGuess(built))
     : initialGuess(built);

@@ -8,6 +8,7 @@ import type { InputIssue } from "../input/issues.js";
 import { InputError } from "../input/issues.js";
 import { parseJsonText } from "../input/read-document.js";
 import type { NetworkResult } from "../results/result-types.js";
+import type { StructureHolder } from "../solve/network-system.js";
 import { readStudyDocument } from "./read-study.js";
 import { type CaseOutcome, solveCase } from "./solve-case.js";
 import { StudyError, type StudyIssue } from "./study-issues.js";
@@ -69,6 +70,8 @@ export function parameterSolver(
 ): ParameterSolver {
   const solved: { value: number; start: Pick<NetworkResult, "nodes"> }[] = [];
   let solves = 0;
+  // Every trial has the base network's layout: one sparse structure for all of them.
+  const structureHolder: StructureHolder = {};
   let iterations = 0;
   return {
     solve(value: number): CaseOutcome {
@@ -81,7 +84,13 @@ export function parameterSolver(
           nearest = point;
         }
       }
-      const outcome = solveCase(study.network, [parameter], [value], nearest?.start);
+      const outcome = solveCase(
+        study.network,
+        [parameter],
+        [value],
+        nearest?.start,
+        structureHolder,
+      );
       solves++;
       iterations += outcome.iterations;
       if (outcome.status === "converged" && outcome.result) {

@@ -5,6 +5,7 @@
  */
 
 import type { NetworkResult, NodeResult } from "../results/result-types.js";
+import type { StructureHolder } from "../solve/network-system.js";
 import {
   blockCount,
   blockRange,
@@ -47,11 +48,13 @@ export function* blockRows(study: PreparedStudy, block: number): Generator<Study
   const [first, end] = blockRange(study, block);
   const solved: StudyCase[] = [];
   const results = new Map<number, Pick<NetworkResult, "nodes">>();
+  // The cases of a block share their layout unless an input changes it: one sparse structure.
+  const structureHolder: StructureHolder = {};
   for (let index = first; index < end; index++) {
     const current = caseAt(study, index);
     const neighbour = study.warmStart ? nearestCase(current, solved) : undefined;
     const start = neighbour ? predictedStart(study, current, neighbour, results) : undefined;
-    const outcome = solveCase(study.network, study.inputs, current.values, start);
+    const outcome = solveCase(study.network, study.inputs, current.values, start, structureHolder);
     const row: StudyRow = {
       case: index + 1,
       values: current.values,

@@ -6,6 +6,7 @@
 
 import type { CheckedDocument, QuantityInput } from "../input/document-types.js";
 import type { EdgeResult, NetworkResult } from "../results/result-types.js";
+import type { StructureHolder } from "../solve/network-system.js";
 import { prepareQuestion } from "./question-setup.js";
 import { solveCase } from "./solve-case.js";
 import type { PreparedStudy, ResolvedParameter, SizingLimits } from "./study-types.js";
@@ -216,12 +217,15 @@ export function answerSizing(study: PreparedStudy): SizingAnswer {
   let solves = 0;
   let iterations = 0;
   let start: Pick<NetworkResult, "nodes"> | undefined;
+  // Every trial has the base network's layout (only diameters change): one sparse structure.
+  const structureHolder: StructureHolder = {};
   const trial = (sizes: readonly number[]) => {
     const outcome = solveCase(
       network,
       parameters,
       sizes.map((s) => diameters[s] as number),
       start,
+      structureHolder,
     );
     solves++;
     iterations += outcome.iterations;

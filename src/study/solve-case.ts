@@ -7,7 +7,8 @@
 import type { CheckedDocument } from "../input/document-types.js";
 import { formatIssue, InputError } from "../input/issues.js";
 import type { NetworkResult } from "../results/result-types.js";
-import { solveCheckedDocument } from "../solve/solve-network.js";
+import type { StructureHolder } from "../solve/network-system.js";
+import { type InternalSolveOptions, solveCheckedDocument } from "../solve/solve-network.js";
 import { applyParameters, caseProblems } from "./parameters.js";
 import type { ResolvedParameter } from "./study-types.js";
 
@@ -51,12 +52,15 @@ export function failureMessage(result: NetworkResult): string {
  * @param parameters - the inputs to change
  * @param values - their values [SI; a scale factor for a group]
  * @param start - a solved neighbour to start from (warm start); none: the solver's first guess
+ * @param structureHolder - kept by the caller across the cases of one network layout: their
+ *   solves share the sparse structure of the Jacobian (src/solve/network-system.ts)
  */
 export function solveCase(
   network: CheckedDocument,
   parameters: readonly ResolvedParameter[],
   values: readonly number[],
   start?: Pick<NetworkResult, "nodes">,
+  structureHolder?: StructureHolder,
 ): CaseOutcome {
   const changed = applyParameters(network, parameters, values);
   const problems = caseProblems(changed, parameters);
@@ -69,7 +73,10 @@ export function solveCase(
     };
   }
   try {
-    const result = solveCheckedDocument(changed, start ? { initialResult: start } : {});
+    const options: InternalSolveOptions = {};
+    if (start) options.initialResult = start;
+    if (structureHolder) options.structureHolder = structureHolder;
+    const result = solveCheckedDocument(changed, options);
     const outcome: CaseOutcome = {
       status: result.status,
       network: changed,
