@@ -92,7 +92,8 @@ export function initialGuess(system: NetworkSystem): Float64Array {
   const setResistance = (e: number, magnitude: number) => {
     const element = system.elements[e] as EdgeElement;
     if (element.kind !== "pipe" || !Number.isNaN(element.fixedFrictionFactor)) {
-      resistance[e] = squaredLawResistance(element, rt, () => 0);
+      // A component's resistance, or a pipe's with its fixed friction factor: no Re in it.
+      resistance[e] = squaredLawResistance(element, rt, () => Number.NaN);
       return;
     }
     const reynolds = (4 * magnitude) / (Math.PI * element.diameter * viscosity);
