@@ -12,18 +12,9 @@
  * edges, 40 iterations).
  */
 import { gasPreset, type NetworkDocument, type NodeInput, pipeFlow } from "../../src/index.js";
+import { seededRandom } from "../seeded-random.js";
 
-/** mulberry32: a small seeded generator of uniform numbers in [0, 1). */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom };
 
 /** The network families of the corpus. */
 export const FAMILIES = [

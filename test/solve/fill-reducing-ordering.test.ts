@@ -5,18 +5,7 @@ import {
   type SymmetricPattern,
 } from "../../src/solve/fill-reducing-ordering.js";
 import { analyzeBlockPattern } from "../../src/solve/sparse-block-lu.js";
-
-/** Small deterministic generator (mulberry32) so every case is reproducible from its seed. */
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { random } from "./sparse-matrix-cases.js";
 
 function patternOf(size: number, edges: [number, number][]): SymmetricPattern {
   const neighbours: number[][] = Array.from({ length: size }, () => []);

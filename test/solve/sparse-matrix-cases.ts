@@ -4,17 +4,7 @@
  * solve with partial pivoting written here as the independent reference.
  */
 
-/** Small deterministic generator (mulberry32) so every case is reproducible from its seed. */
-export function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom as random } from "../seeded-random.js";
 
 /** Dense Gaussian elimination with partial pivoting: the independent reference. */
 export function denseSolve(matrix: number[][], rhs: number[]): number[] {

@@ -1,0 +1,15 @@
+/**
+ * mulberry32: a small seeded generator of uniform numbers in [0, 1), shared by the tests that
+ * draw random cases (the hardening corpus, the sparse factorization and ordering tests) so that
+ * every case is reproducible from its seed.
+ */
+export function seededRandom(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
