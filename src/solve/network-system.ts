@@ -622,16 +622,24 @@ export function evaluateEdgeAt(
 /**
  * Evaluate residuals (and, if asked, the Jacobian) at the scaled unknowns x.
  * `throughput` fixes the mass scale; pass undefined to take it from this state.
+ *
+ * `retired`, an earlier evaluation of this system that the caller no longer needs, lends its
+ * arrays, which are overwritten (Newton's line search keeps a few and passes them round: on a
+ * 100,000-edge network each evaluation is 13 MB, and fresh ones every trial made the garbage
+ * collector run a full collection per iteration). It must not be used afterwards.
  */
 export function evaluateSystem(
   system: NetworkSystem,
   x: Float64Array,
   withJacobian: boolean,
   throughput?: number,
+  retired?: SystemEvaluation,
 ): SystemEvaluation {
   const { model, edgeCount, junctionCount } = system;
-  const massFlow = new Float64Array(edgeCount);
-  const choked = new Uint8Array(edgeCount);
+  const reuse = retired !== undefined && retired.massFlow.length === edgeCount;
+  // Every entry of the lent arrays is written below before it is read, or zeroed here.
+  const massFlow = reuse ? retired.massFlow : new Float64Array(edgeCount);
+  const choked = reuse ? retired.choked : new Uint8Array(edgeCount);
   // Working arrays, reused across calls (the system's scratch): every entry read below is
   // written first in this call, or zeroed here.
   const scratch = system.scratch;
@@ -643,7 +651,7 @@ export function evaluateSystem(
   const flowSlopes = scratch.flowSlopes.fill(0);
   const arrivalSlopes = scratch.arrivalSlopes.fill(0);
   const nodeCount = model.document.nodes.length;
-  const nodeNetOutflow = new Float64Array(nodeCount);
+  const nodeNetOutflow = reuse ? retired.nodeNetOutflow.fill(0) : new Float64Array(nodeCount);
   const nodeInflow = scratch.nodeInflow.fill(0);
   // Round-off of each flow: its change for a few units of rounding in its end pressures [kg/s].
   const nodeFlowNoise = scratch.nodeFlowNoise.fill(0);
@@ -695,14 +703,14 @@ export function evaluateSystem(
   const temperatureScale = system.temperatureScale;
   // Energy rows are scaled per junction by (inflow + injection + w) T_ref: the residual is then the
   // junction's temperature error relative to T_ref, enforced alike at busy and quiet junctions.
-  const energyScale = new Float64Array(junctionCount);
+  const energyScale = reuse ? retired.energyScale : new Float64Array(junctionCount);
   for (let j = 0; j < junctionCount; j++) {
     const node = model.junctionNodes[j] as number;
     const demand = system.demand[node] as number;
     const supplied = (nodeInflow[node] as number) + (demand < 0 ? -demand : 0);
     energyScale[j] = (supplied + noFlowWeight(scale, supplied)) * temperatureScale;
   }
-  const residual = new Float64Array(2 * junctionCount);
+  const residual = reuse ? retired.residual : new Float64Array(2 * junctionCount);
   // Per junction: its own enthalpy temperature H(T_j, p_j) and slopes, and d/dp_j of the ambient
   // and injection terms' w (H_ambient - H_j) + injection (H_injected - H_j) (0 for a perfect gas).
   const { junctionEnthalpy, junctionEnthalpyPerT, junctionEnthalpyPerP, supplyTermPerP } = scratch;
@@ -747,7 +755,11 @@ export function evaluateSystem(
 
   let jacobian: Float64Array | undefined;
   if (withJacobian) {
-    jacobian = new Float64Array(4 * system.structure.blockCount);
+    const blockValues = 4 * system.structure.blockCount;
+    jacobian =
+      reuse && retired.jacobian?.length === blockValues
+        ? retired.jacobian.fill(0)
+        : new Float64Array(blockValues);
     const tS = temperatureScale;
     // Regularisation of the energy rows.
     for (let j = 0; j < junctionCount; j++) {
@@ -843,7 +855,7 @@ export function evaluateSystem(
       }
     }
   }
-  const massNoise = new Float64Array(junctionCount);
+  const massNoise = reuse ? retired.massNoise : new Float64Array(junctionCount);
   for (let j = 0; j < junctionCount; j++) {
     massNoise[j] = (nodeFlowNoise[model.junctionNodes[j] as number] as number) / scale;
   }

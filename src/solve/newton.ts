@@ -81,7 +81,14 @@ const STEP_TOLERANCE_FLOOR = 1e-10;
 
 /** Kept factors of an earlier Jacobian and the step tolerance of the next solve. */
 interface StepSolver {
+  /** Factors that later steps are solved with by GMRES (where reusing them pays). */
   factors: BlockLuFactorization | undefined;
+  /**
+   * The last factors where they are not reused: their storage is lent to the next
+   * factorization, so that a large network does not allocate its factors afresh every
+   * iteration (40 MB at 100,000 edges; the garbage collector ran a full collection for each).
+   */
+  spare: BlockLuFactorization | undefined;
   tolerance: number;
 }
 
@@ -105,8 +112,9 @@ function newtonStep(
     );
     if (frozen.x !== undefined) return frozen.x;
   }
-  const factors = factorBlockMatrix(system.structure, jacobian, solver.factors);
+  const factors = factorBlockMatrix(system.structure, jacobian, solver.factors ?? solver.spare);
   if (reuseOfFactorsPays(system.structure)) solver.factors = factors;
+  else solver.spare = factors;
   return solveFactored(factors, rhs);
 }
 
@@ -182,7 +190,33 @@ export function newtonSolve(
   let evaluation = evaluateSystem(system, x, true);
   let best = { x, evaluation, norm: merit(evaluation, system.temperatureScale) };
   let iterations = 0;
-  const solver: StepSolver = { factors: undefined, tolerance: STEP_TOLERANCE_CEILING };
+  const solver: StepSolver = {
+    factors: undefined,
+    spare: undefined,
+    tolerance: STEP_TOLERANCE_CEILING,
+  };
+  // States no longer needed (neither the current iterate nor the best one): their arrays are
+  // lent to the next trials (see evaluateSystem's `retired`).
+  const spares: IterateState[] = [];
+  const retire = (state: IterateState): void => {
+    if (state.evaluation === evaluation || state.evaluation === best.evaluation) return;
+    if (!spares.some((spare) => spare.evaluation === state.evaluation)) spares.push(state);
+  };
+  const trialState = (alpha: number, step: Float64Array, spare?: IterateState): IterateState => {
+    const trial = spare?.x ?? new Float64Array(x.length);
+    for (let i = 0; i < x.length; i++) trial[i] = (x[i] as number) + alpha * (step[i] as number);
+    // With the Jacobian: if the trial is accepted, it is the next iterate as it stands.
+    const trialEvaluation = evaluateSystem(
+      system,
+      trial,
+      true,
+      evaluation.throughput,
+      spare?.evaluation,
+    );
+    evaluations++;
+    return { x: trial, evaluation: trialEvaluation };
+  };
+  const rhs = new Float64Array(x.length);
   let previousNorm = Number.NaN;
   const outcome = (converged: boolean, stopReason?: NewtonOutcome["stopReason"]): NewtonOutcome => {
     const chosen = converged ? { x, evaluation } : best;
@@ -227,7 +261,7 @@ export function newtonSolve(
     iterations++;
 
     const jacobian = evaluation.jacobian as Float64Array;
-    const rhs = evaluation.residual.map((value) => -value);
+    for (let i = 0; i < rhs.length; i++) rhs[i] = -(evaluation.residual[i] as number);
     const residualNorm = Math.sqrt(merit(evaluation, system.temperatureScale));
     if (Number.isFinite(previousNorm) && previousNorm > 0) {
       const eta = 0.9 * (residualNorm / previousNorm) ** 2;
@@ -257,18 +291,17 @@ export function newtonSolve(
     // Backtracking line search on 0.5 |R|^2 with the mass scale of this iteration held fixed.
     const norm = merit(evaluation, system.temperatureScale);
     let alpha = limit;
-    let accepted: { x: Float64Array; evaluation: SystemEvaluation } | undefined;
+    let accepted: IterateState | undefined;
+    let rejected = spares.pop();
     while (alpha >= MIN_STEP) {
-      const trial = new Float64Array(x.length);
-      for (let i = 0; i < x.length; i++) trial[i] = (x[i] as number) + alpha * (step[i] as number);
-      // With the Jacobian: if the trial is accepted, it is the next iterate as it stands.
-      const trialEvaluation = evaluateSystem(system, trial, true, evaluation.throughput);
-      evaluations++;
-      const trialNorm = merit(trialEvaluation, system.temperatureScale);
+      const trial = trialState(alpha, step, rejected);
+      const trialNorm = merit(trial.evaluation, system.temperatureScale);
       if (Number.isFinite(trialNorm) && trialNorm <= (1 - 2 * SUFFICIENT_DECREASE * alpha) * norm) {
-        accepted = { x: trial, evaluation: trialEvaluation };
+        accepted = trial;
+        rejected = undefined;
         break;
       }
+      rejected = trial;
       alpha *= 0.5;
     }
     if (accepted === undefined) {
@@ -276,17 +309,19 @@ export function newtonSolve(
       // the residual (a choke or flow-reversal point), if it keeps every state positive and
       // lowers the residual; otherwise stop.
       const alphaShort = Math.min(limit, 1e-3);
-      const trial = new Float64Array(x.length);
-      for (let i = 0; i < x.length; i++)
-        trial[i] = (x[i] as number) + alphaShort * (step[i] as number);
-      if (!trial.every((value, i) => (i % 2 === 0 ? 1 + value : value) > 0))
+      for (let i = 0; i < x.length; i++) {
+        const value = (x[i] as number) + alphaShort * (step[i] as number);
+        if (!((i % 2 === 0 ? 1 + value : value) > 0)) return outcome(false, "stalled");
+      }
+      const trial = trialState(alphaShort, step, rejected);
+      rejected = undefined;
+      if (!(merit(trial.evaluation, system.temperatureScale) < norm))
         return outcome(false, "stalled");
-      const trialEvaluation = evaluateSystem(system, trial, true, evaluation.throughput);
-      evaluations++;
-      if (!(merit(trialEvaluation, system.temperatureScale) < norm))
-        return outcome(false, "stalled");
-      accepted = { x: trial, evaluation: trialEvaluation };
+      accepted = trial;
     }
+    if (rejected !== undefined) spares.push(rejected);
+    const previous: IterateState = { x, evaluation };
+    const previousBest = best;
     x = accepted.x;
     // Re-evaluate only if the mass scale moved (the throughput follows the reservoir flows).
     // The trial was scaled by the old throughput; bring its mass rows to this state's own.
@@ -294,27 +329,36 @@ export function newtonSolve(
     const currentNorm = merit(evaluation, system.temperatureScale);
     if (currentNorm < best.norm || !Number.isFinite(best.norm))
       best = { x, evaluation, norm: currentNorm };
+    retire(previous);
+    retire(previousBest);
   }
 }
 
+/** An iterate and the system evaluated there. */
+interface IterateState {
+  x: Float64Array;
+  evaluation: SystemEvaluation;
+}
+
 /**
- * The evaluation with its mass rows (residuals and Jacobian) rescaled to the throughput of its
- * own state. Mass rows are linear in 1/W; the energy rows depend on W only through the no-flow
- * weight, by a relative (eps W)^2 that is below rounding.
+ * The evaluation, which the caller alone holds, with its mass rows (residuals and Jacobian)
+ * rescaled in place to the throughput of its own state. Mass rows are linear in 1/W; the energy
+ * rows depend on W only through the no-flow weight, by a relative (eps W)^2 that is below
+ * rounding.
  */
 function withOwnThroughput(system: NetworkSystem, evaluation: SystemEvaluation): SystemEvaluation {
   const own = networkThroughput(system, evaluation.nodeNetOutflow);
   if (own === evaluation.throughput) return evaluation;
   const factor = evaluation.throughput / own;
-  const residual = Float64Array.from(evaluation.residual);
+  const residual = evaluation.residual;
   for (let i = 0; i < residual.length; i += 2) residual[i] = (residual[i] as number) * factor;
-  let jacobian = evaluation.jacobian;
+  const jacobian = evaluation.jacobian;
   if (jacobian !== undefined) {
-    jacobian = Float64Array.from(jacobian);
     for (let b = 0; b < jacobian.length; b += 4) {
       jacobian[b] = (jacobian[b] as number) * factor;
       jacobian[b + 1] = (jacobian[b + 1] as number) * factor;
     }
   }
-  return { ...evaluation, residual, jacobian, throughput: own };
+  evaluation.throughput = own;
+  return evaluation;
 }

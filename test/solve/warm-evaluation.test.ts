@@ -92,3 +92,59 @@ describe("a warm-started residual evaluation equals a cold one (generated 1,000-
     });
   }
 });
+
+// Issue 8 (memory): Newton's line search lends the arrays of an evaluation it no longer needs to
+// the next one (evaluateSystem's `retired`). The lent arrays must be overwritten completely:
+// the same numbers to the bit as a fresh evaluation after the same history.
+describe("an evaluation in a retired evaluation's arrays equals a fresh one", () => {
+  const document = generateNetwork({ edges: 300, seed: 9, topology: "mixed" });
+  const read = readNetworkDocument(document);
+  if (!read.ok) throw new Error("the generated network does not read");
+  const built = buildNetwork(read.document);
+  if (!built.ok) throw new Error("the generated network does not build");
+  const model = built.model;
+  /** A state away from the solution, so that flows, chokes and residuals all differ. */
+  const stateAt = (system: NetworkSystem, shift: number): Float64Array => {
+    const x = new Float64Array(2 * system.junctionCount);
+    for (let j = 0; j < system.junctionCount; j++) {
+      x[2 * j] = -0.3 * (1 + Math.sin(1.7 * j + shift)) * 0.5;
+      x[2 * j + 1] = 1 + 0.05 * Math.cos(2.3 * j + shift);
+    }
+    return x;
+  };
+
+  for (const lentWithJacobian of [true, false]) {
+    it(`lent by an evaluation ${lentWithJacobian ? "with" : "without"} a Jacobian`, () => {
+      const lending = createNetworkSystem(model);
+      const fresh = createNetworkSystem(model);
+      const retired = evaluateSystem(lending, stateAt(lending, 0), lentWithJacobian);
+      evaluateSystem(fresh, stateAt(fresh, 0), lentWithJacobian);
+      const x = stateAt(lending, 2);
+      const reused = evaluateSystem(lending, x, true, undefined, retired);
+      const expected = evaluateSystem(fresh, x, true);
+      // The arrays are the lent ones (so nothing new was allocated for them) ...
+      expect(reused.residual).toBe(retired.residual);
+      expect(reused.massFlow).toBe(retired.massFlow);
+      if (lentWithJacobian) expect(reused.jacobian).toBe(retired.jacobian);
+      // ... and hold what a fresh evaluation holds, to the bit.
+      expect(reused.throughput).toBe(expected.throughput);
+      for (const key of [
+        "residual",
+        "jacobian",
+        "massFlow",
+        "choked",
+        "nodeNetOutflow",
+        "energyScale",
+        "massNoise",
+      ] as const) {
+        expect([...(reused[key] as ArrayLike<number>)], key).toEqual([
+          ...(expected[key] as ArrayLike<number>),
+        ]);
+      }
+      // The state must differ from the lent one's, or the test could not fail.
+      expect([...reused.massFlow]).not.toEqual([
+        ...evaluateSystem(createNetworkSystem(model), stateAt(lending, 0), false).massFlow,
+      ]);
+    });
+  }
+});
