@@ -46,23 +46,27 @@ export function minimumDegreeOrdering(pattern: SymmetricPattern): Int32Array {
     return list;
   };
   // Binary heap of (degree, index) with lazy deletion: a popped entry whose degree is stale is
-  // skipped. Ties go to the lowest index, so the ordering is deterministic.
+  // skipped. Ties go to the lowest index, so the ordering is deterministic. The packed
+  // degree * n + index is exact while n^2 < 2^53 (n below 9e7 rows).
   const heap = new MinHeap();
   let mark = 0;
   for (let i = 0; i < n; i++) {
     degree[i] = compact(i, mark++).length;
-    heap.push(degree[i] as number, i);
+    heap.push((degree[i] as number) * n + i);
   }
   const order = new Int32Array(n);
   for (let step = 0; step < n; step++) {
     let pivot = -1;
     while (pivot < 0) {
-      const [d, node] = heap.pop();
+      const packed = heap.pop();
+      const d = Math.floor(packed / n);
+      const node = packed - d * n;
       if (eliminated[node] === 0 && degree[node] === d) pivot = node;
     }
     order[step] = pivot;
     eliminated[pivot] = 1;
-    const neighbours = compact(pivot, mark++).slice();
+    // Not copied: the loop below changes the neighbours' lists, never the pivot's.
+    const neighbours = compact(pivot, mark++);
     // Eliminating the pivot couples all its remaining neighbours pairwise (fill).
     for (const s of neighbours) {
       const list = compact(s, mark); // stamps s's live neighbours with `mark`
@@ -74,72 +78,56 @@ export function minimumDegreeOrdering(pattern: SymmetricPattern): Int32Array {
       }
       mark++;
       degree[s] = list.length;
-      heap.push(degree[s] as number, s);
+      heap.push((degree[s] as number) * n + s);
     }
     adjacency[pivot] = [];
   }
   return order;
 }
 
-/** A binary min-heap of (key, index) pairs ordered by key, then index. */
+/**
+ * A binary min-heap of numbers. Minimum degree stores each (degree, row) pair as one number,
+ * degree * size + row, so that the heap orders by degree, then by row, without a tuple per pop.
+ */
 class MinHeap {
-  private keys: number[] = [];
-  private items: number[] = [];
+  private values: number[] = [];
 
-  push(key: number, item: number): void {
-    const keys = this.keys;
-    const items = this.items;
-    let i = keys.length;
-    keys.push(key);
-    items.push(item);
+  push(value: number): void {
+    const values = this.values;
+    let i = values.length;
+    values.push(value);
     while (i > 0) {
       const parent = (i - 1) >> 1;
-      if (!this.less(i, parent)) break;
-      this.swap(i, parent);
+      const above = values[parent] as number;
+      if (above <= value) break;
+      values[i] = above;
       i = parent;
     }
+    values[i] = value;
   }
 
-  pop(): [number, number] {
-    const keys = this.keys;
-    const items = this.items;
-    if (keys.length === 0) throw new Error("MinHeap.pop on an empty heap");
-    const top: [number, number] = [keys[0] as number, items[0] as number];
-    const lastKey = keys.pop() as number;
-    const lastItem = items.pop() as number;
-    if (keys.length > 0) {
-      keys[0] = lastKey;
-      items[0] = lastItem;
+  pop(): number {
+    const values = this.values;
+    if (values.length === 0) throw new Error("MinHeap.pop on an empty heap");
+    const top = values[0] as number;
+    const last = values.pop() as number;
+    const length = values.length;
+    if (length > 0) {
       let i = 0;
       for (;;) {
         const left = 2 * i + 1;
+        if (left >= length) break;
         const right = left + 1;
-        let smallest = i;
-        if (left < keys.length && this.less(left, smallest)) smallest = left;
-        if (right < keys.length && this.less(right, smallest)) smallest = right;
-        if (smallest === i) break;
-        this.swap(i, smallest);
-        i = smallest;
+        let child = left;
+        if (right < length && (values[right] as number) < (values[left] as number)) child = right;
+        const below = values[child] as number;
+        if (below >= last) break;
+        values[i] = below;
+        i = child;
       }
+      values[i] = last;
     }
     return top;
-  }
-
-  private less(a: number, b: number): boolean {
-    const ka = this.keys[a] as number;
-    const kb = this.keys[b] as number;
-    return ka < kb || (ka === kb && (this.items[a] as number) < (this.items[b] as number));
-  }
-
-  private swap(a: number, b: number): void {
-    const keys = this.keys;
-    const items = this.items;
-    const k = keys[a] as number;
-    keys[a] = keys[b] as number;
-    keys[b] = k;
-    const t = items[a] as number;
-    items[a] = items[b] as number;
-    items[b] = t;
   }
 }
 
