@@ -137,9 +137,9 @@ describe("an evaluation in a retired evaluation's arrays equals a fresh one", ()
         "energyScale",
         "massNoise",
       ] as const) {
-        expect([...(reused[key] as ArrayLike<number>)], key).toEqual([
-          ...(expected[key] as ArrayLike<number>),
-        ]);
+        expect(Array.from(reused[key] as ArrayLike<number>), key).toEqual(
+          Array.from(expected[key] as ArrayLike<number>),
+        );
       }
       // The state must differ from the lent one's, or the test could not fail.
       expect([...reused.massFlow]).not.toEqual([
