@@ -41,7 +41,7 @@ import type { NetworkModel } from "../model/build-network.js";
 import { type EdgeElement, evaluateEdgeFlow, flowsForward } from "../physics/edge-flow.js";
 import { pipeGas } from "../physics/pipe.js";
 import { isCreepingFlow, PipeFlowEvaluation, type PipeGas } from "../physics/pipe-flow.js";
-import type { BlockLuStructure } from "./sparse-block-lu.js";
+import type { BlockLuFactorization, BlockLuStructure } from "./sparse-block-lu.js";
 import { analyzeBlockPattern } from "./sparse-block-lu.js";
 
 /** Relative weight eps of the ambient-temperature term that regularises junctions without flow. */
@@ -186,18 +186,68 @@ export interface SystemEvaluation {
 }
 
 /**
- * A holder for the sparse structure of a Jacobian (its ordering and symbolic factorization),
- * kept by a caller between solves of networks of one layout, such as the cases of a study (the
- * same nodes and edges with other values): a system built with it takes the structure held
- * there when its pattern is the same, and otherwise analyses its own and leaves that there.
- * The solution does not depend on it; only the analysis is saved.
+ * A holder for what consecutive solves of networks of one layout can share, kept by a caller
+ * between them, such as the cases of a study (the same nodes and edges with other values):
+ * - the sparse structure of the Jacobian (its ordering and symbolic factorization): a system
+ *   built with the holder takes the structure held there when its pattern is the same, and
+ *   otherwise analyses its own and leaves that there;
+ * - the edges' warm starts: a system built for a warm start (`takeEdgeStarts`) whose edges are
+ *   of the same kinds takes over the last system's per-edge evaluations, so that its first
+ *   evaluation starts each pipe's inversion from the inlet Mach number found in the case before
+ *   instead of from a low-Mach estimate (at 10,000 edges a first evaluation costs four to five
+ *   times a warm one). A solve from the first guess takes fresh ones, so that it gives the same
+ *   numbers to the bit as the same solve without the holder;
+ * - the factors of the last converged solve's final Jacobian, with which the first Newton
+ *   steps of the next case are solved by preconditioned GMRES (src/solve/frozen-factor-gmres.ts)
+ *   until they no longer do.
+ * The solution does not depend on any of it beyond the solver's tolerances: only analysis,
+ * starting values of inner iterations and factorizations are saved.
  */
 export interface StructureHolder {
   structure?: BlockLuStructure;
+  /** The last system's per-edge evaluations and the kind of each edge they were made for. */
+  edgeStarts?: { kinds: string[]; evaluations: PipeFlowEvaluation[] };
+  /** Factors of the last converged solve's final Jacobian (in `structure`). */
+  factors?: BlockLuFactorization;
 }
 
-/** Build the constant parts of a network's system (see {@link StructureHolder}). */
-export function createNetworkSystem(model: NetworkModel, holder?: StructureHolder): NetworkSystem {
+/** What an edge's evaluation object holds warm starts for: its kind and pipe model. */
+function edgeStartKind(element: EdgeElement): string {
+  return element.kind === "pipe" ? `pipe ${element.model}` : element.kind;
+}
+
+/**
+ * The held per-edge evaluations when asked for and made for edges of these kinds, else fresh
+ * ones; either way they are left in the holder for the next system.
+ */
+function edgeEvaluations(
+  elements: readonly EdgeElement[],
+  holder: StructureHolder | undefined,
+  takeEdgeStarts: boolean,
+): PipeFlowEvaluation[] {
+  const kinds = elements.map(edgeStartKind);
+  const held = holder?.edgeStarts;
+  const evaluations =
+    takeEdgeStarts &&
+    held !== undefined &&
+    held.kinds.length === kinds.length &&
+    held.kinds.every((kind, e) => kind === kinds[e])
+      ? held.evaluations
+      : elements.map(() => new PipeFlowEvaluation());
+  if (holder !== undefined) holder.edgeStarts = { kinds, evaluations };
+  return evaluations;
+}
+
+/**
+ * Build the constant parts of a network's system (see {@link StructureHolder}).
+ *
+ * @param takeEdgeStarts - take the held per-edge warm starts (a warm start from a solved case)
+ */
+export function createNetworkSystem(
+  model: NetworkModel,
+  holder?: StructureHolder,
+  takeEdgeStarts = false,
+): NetworkSystem {
   const doc = model.document;
   const gasData = doc.gas;
   const gas = pipeGas(gasData);
@@ -289,7 +339,7 @@ export function createNetworkSystem(model: NetworkModel, holder?: StructureHolde
     ambientTemperature: doc.ambientTemperature,
     structure,
     edgeBlocks,
-    evaluations: elements.map(() => new PipeFlowEvaluation()),
+    evaluations: edgeEvaluations(elements, holder, takeEdgeStarts),
     thermo:
       gasData.heatCapacity === undefined && gasData.equationOfState === undefined
         ? undefined

@@ -22,6 +22,12 @@ export interface NewtonOptions {
   deadline?: number;
   /** Clock for the deadline (injected so the core reads no clock of its own unless asked). */
   now?: () => number;
+  /**
+   * Factors of a Jacobian of the same structure near this solve's start (the final one of a
+   * solved case close to this one): the first steps are solved by GMRES with them as the
+   * preconditioner, until it no longer reaches a step's tolerance in a few iterations.
+   */
+  startFactors?: BlockLuFactorization;
 }
 
 /** What a Newton run ended with. */
@@ -42,6 +48,8 @@ export interface NewtonOutcome {
   stopReason?: "iterations" | "time" | "stalled" | "non-finite";
   /** Number of system evaluations (each one pipe relation per edge), line-search trials included. */
   evaluations: number;
+  /** The factors the last step was solved with (undefined when no step was taken). */
+  factors?: BlockLuFactorization;
 }
 
 /** Largest fraction by which one step may change a pressure or a temperature. */
@@ -61,11 +69,13 @@ const SUFFICIENT_DECREASE = 1e-4;
 const MIN_STEP = 1e-6;
 
 /**
- * Where reusing factors pays (large meshed networks, `reuseOfFactorsPays`), a Newton step is first solved by GMRES preconditioned with the
- * factors of an earlier Jacobian (src/solve/frozen-factor-gmres.ts) and the Jacobian is factored
- * again only when GMRES does not reach the step's tolerance in FROZEN_STEP_ITERATIONS; small
- * networks and trees factor every Jacobian (it costs less than the edge evaluations there) and
- * solve each step exactly.
+ * Where reusing factors pays (large meshed networks, `reuseOfFactorsPays`), a Newton step is
+ * first solved by GMRES preconditioned with the factors of an earlier Jacobian
+ * (src/solve/frozen-factor-gmres.ts) and the Jacobian is factored again only when GMRES does not
+ * reach the step's tolerance in FROZEN_STEP_ITERATIONS; small networks and trees factor every
+ * Jacobian (it costs less than the edge evaluations there) and solve each step exactly. A solve
+ * given start factors (a warm start from a solved case nearby, `NewtonOptions.startFactors`)
+ * solves its steps with them the same way whatever the network, until GMRES fails once.
  *
  * The step's tolerance (relative residual of J s = -R) follows Eisenstat and Walker's second
  * choice, eta = 0.9 (|R_k| / |R_k-1|)^2, within [1e-10, 1e-3]: a loose step while far from the
@@ -89,6 +99,8 @@ interface StepSolver {
    * iteration (40 MB at 100,000 edges; the garbage collector ran a full collection for each).
    */
   spare: BlockLuFactorization | undefined;
+  /** The factors the last step was solved with. */
+  last: BlockLuFactorization | undefined;
   tolerance: number;
 }
 
@@ -110,11 +122,19 @@ function newtonStep(
       solver.tolerance,
       FROZEN_STEP_ITERATIONS,
     );
-    if (frozen.x !== undefined) return frozen.x;
+    if (frozen.x !== undefined) {
+      solver.last = solver.factors;
+      return frozen.x;
+    }
   }
   const factors = factorBlockMatrix(system.structure, jacobian, solver.factors ?? solver.spare);
   if (reuseOfFactorsPays(system.structure)) solver.factors = factors;
-  else solver.spare = factors;
+  else {
+    // Given start factors that no longer do: factor every Jacobian from here on.
+    solver.factors = undefined;
+    solver.spare = factors;
+  }
+  solver.last = factors;
   return solveFactored(factors, rhs);
 }
 
@@ -191,8 +211,9 @@ export function newtonSolve(
   let best = { x, evaluation, norm: merit(evaluation, system.temperatureScale) };
   let iterations = 0;
   const solver: StepSolver = {
-    factors: undefined,
+    factors: options.startFactors,
     spare: undefined,
+    last: undefined,
     tolerance: STEP_TOLERANCE_CEILING,
   };
   // States no longer needed (neither the current iterate nor the best one): their arrays are
@@ -230,6 +251,7 @@ export function newtonSolve(
       evaluation: chosen.evaluation,
       evaluations,
     };
+    if (solver.last !== undefined) result.factors = solver.last;
     if (stopReason !== undefined) result.stopReason = stopReason;
     return result;
   };

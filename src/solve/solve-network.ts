@@ -9,6 +9,7 @@ import { buildNetwork, type NetworkModel } from "../model/build-network.js";
 import { PipeFlowEvaluation } from "../physics/pipe-flow.js";
 import { designWarnings, resultsAtState } from "../results/build-results.js";
 import type { NetworkResult, NoSolutionDiagnosis, SolverWarning } from "../results/result-types.js";
+import { reuseOfStartFactorsPays } from "./frozen-factor-gmres.js";
 import { initialGuess } from "./initial-guess.js";
 import {
   createNetworkSystem,
@@ -131,7 +132,11 @@ export function solveWithState(
     ...(limitMs !== undefined && now !== undefined ? { deadline: now() + limitMs, now } : {}),
   };
   const model = modelOf(checked);
-  const built = createNetworkSystem(model, options.structureHolder);
+  const built = createNetworkSystem(
+    model,
+    options.structureHolder,
+    options.initialResult !== undefined,
+  );
   const guess = options.initialResult
     ? (stateFromResult(built, options.initialResult) ?? initialGuess(built))
     : initialGuess(built);
@@ -141,7 +146,20 @@ export function solveWithState(
   const referenced = withPressureReferences(built, guess);
   let system = referenced.system;
   const start = referenced.x;
-  let outcome = newtonSolve(system, start, newtonOptions);
+  // A warm start from a solved case of the same layout: its final factors precondition the
+  // first steps (StructureHolder).
+  const holder = options.structureHolder;
+  const startFactors =
+    options.initialResult !== undefined &&
+    holder?.structure === built.structure &&
+    reuseOfStartFactorsPays(built.structure)
+      ? holder.factors
+      : undefined;
+  let outcome = newtonSolve(
+    system,
+    start,
+    startFactors !== undefined ? { ...newtonOptions, startFactors } : newtonOptions,
+  );
   let iterations = outcome.iterations;
   const warnings: SolverWarning[] = checked.notes.map((note) => ({
     code: "bare-pressure-unit-absolute",
@@ -177,6 +195,10 @@ export function solveWithState(
     }
   }
 
+  if (holder !== undefined) {
+    if (status === "converged" && outcome.factors !== undefined) holder.factors = outcome.factors;
+    else delete holder.factors;
+  }
   const state = resultsAtState(system, outcome.x);
   const converged = status === "converged";
   if (converged) {

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { generateNetwork } from "../../benchmarks/generate-network.js";
 import type { CheckedDocument } from "../../src/input/document-types.js";
 import { checkedDocumentOrThrow } from "../../src/input/read-document.js";
+import { reuseOfStartFactorsPays } from "../../src/solve/frozen-factor-gmres.js";
 import type { StructureHolder } from "../../src/solve/network-system.js";
 import { solveCheckedDocument } from "../../src/solve/solve-network.js";
 
@@ -50,5 +51,71 @@ describe("a sparse structure shared by solves of one layout (StructureHolder)", 
     const result = solveCheckedDocument(other, { structureHolder: holder });
     expect(holder.structure).not.toBe(first);
     expect(result).toEqual(solveCheckedDocument(other));
+  });
+
+  it("hands a warm start the last case's edge evaluations, and a cold solve fresh ones", () => {
+    const holder: StructureHolder = {};
+    const before = solveCheckedDocument(base, { structureHolder: holder });
+    const handed = holder.edgeStarts?.evaluations;
+    expect(handed).toHaveLength(base.edges.length);
+    const changed = withDemands(base, 1.01);
+    const warm = solveCheckedDocument(changed, { initialResult: before, structureHolder: holder });
+    expect(holder.edgeStarts?.evaluations === handed).toBe(true);
+    // The same warm start without the holder (fresh evaluations): the same state to the
+    // solver's tolerance (1e-9 of the throughput), far below what a result shows.
+    const alone = solveCheckedDocument(changed, { initialResult: before });
+    expect(warm.converged && alone.converged).toBe(true);
+    warm.nodes.forEach((node, i) => {
+      expect(node.pressure).toBeCloseTo(alone.nodes[i]?.pressure as number, 3);
+      expect(node.temperature).toBeCloseTo(alone.nodes[i]?.temperature as number, 6);
+    });
+    solveCheckedDocument(changed, { structureHolder: holder });
+    expect(holder.edgeStarts?.evaluations === handed).toBe(false);
+  });
+
+  it("gives no edge evaluations to a network whose pipes are of another model", () => {
+    const holder: StructureHolder = {};
+    const before = solveCheckedDocument(base, { structureHolder: holder });
+    const handed = holder.edgeStarts?.evaluations;
+    const isothermal: CheckedDocument = {
+      ...base,
+      edges: base.edges.map((edge) =>
+        edge.kind === "pipe" ? { ...edge, model: "isothermal" as const } : edge,
+      ),
+    };
+    const result = solveCheckedDocument(isothermal, {
+      initialResult: before,
+      structureHolder: holder,
+    });
+    expect(holder.edgeStarts?.evaluations === handed).toBe(false);
+    expect(result).toEqual(solveCheckedDocument(isothermal, { initialResult: before }));
+  });
+
+  it("solves a warm start on a large meshed network with the factors the case before left", () => {
+    // A grid of 8,000 edges: the smallest generated kind on which the start factors pay.
+    const grid = checkedDocumentOrThrow(
+      generateNetwork({ edges: 8000, seed: 2, topology: "grid" }),
+    );
+    const holder: StructureHolder = {};
+    const before = solveCheckedDocument(grid, { structureHolder: holder });
+    const factors = holder.factors;
+    expect(factors).toBeDefined();
+    expect(
+      reuseOfStartFactorsPays(holder.structure as NonNullable<StructureHolder["structure"]>),
+    ).toBe(true);
+    const changed = withDemands(grid, 1.01);
+    const warm = solveCheckedDocument(changed, { initialResult: before, structureHolder: holder });
+    expect(warm.converged).toBe(true);
+    // Every step was solved by GMRES with them: no new factorization replaced them.
+    // (compared as a boolean: a failing toBe would diff megabytes of factors)
+    expect(holder.factors === factors).toBe(true);
+    const alone = solveCheckedDocument(changed, { initialResult: before });
+    let largest = 0;
+    warm.nodes.forEach((node, i) => {
+      const other = alone.nodes[i]?.pressure as number;
+      largest = Math.max(largest, Math.abs(node.pressure - other) / other);
+    });
+    expect(largest).toBeLessThan(1e-8);
+    expect(warm.balance.largestMassImbalance).toBeLessThan(1e-8);
   });
 });
