@@ -11,8 +11,9 @@
 // edges, peak resident memory, the solve time over one full residual evaluation, and the speed
 // ratio against a generic approach on the same network: Newton with a dense finite-difference
 // Jacobian (one residual evaluation per unknown) and the dense LU of ml-matrix, run up to the
-// size where it still finishes within GENERIC_LIMIT_MS. At 10,000 edges (mixed) also a warm
-// start: the same network re-solved from its solution after every demand grew by 1 %.
+// size where it still finishes within GENERIC_LIMIT_MS. At 10,000 edges also a warm start: the
+// same network re-solved from its solution after every demand grew by 1 %, in three ways, each
+// in a process of its own (warmChild).
 //
 // Run after `npm run build` (npm run bench does that). Timing lives here, never in tests.
 import { execFileSync } from "node:child_process";
@@ -27,8 +28,18 @@ const GENERIC_MAX_EDGES = 1000;
 /** The size at which the warm start is measured. */
 const WARM_START_EDGES = 10_000;
 
+/** The ways a warm start is measured, each in a process of its own (see warmChild). */
+const WARM_VARIANTS = ["plain", "reuse", "study"];
+
 if (process.argv[2] === "--child") {
   await child(Number(process.argv[3]), process.argv[4], Number(process.argv[5]));
+} else if (process.argv[2] === "--warm-child") {
+  await warmChild(
+    Number(process.argv[3]),
+    process.argv[4],
+    Number(process.argv[5]),
+    process.argv[6],
+  );
 } else {
   await parent();
 }
@@ -61,27 +72,20 @@ async function parent() {
   console.log(header);
   for (const edges of sizes) {
     for (const topology of topologies) {
-      const output = execFileSync(
-        process.execPath,
-        [
-          "--max-old-space-size=4096",
-          fileURLToPath(import.meta.url),
-          "--child",
-          String(edges),
-          topology,
-          "1",
-        ],
-        { encoding: "utf8", maxBuffer: 1 << 24 },
-      );
-      const row = JSON.parse(output.trim().split("\n").pop());
+      const row = childResult("--child", edges, topology);
       rows.push(row);
       console.log(formatRow(row));
-      if (row.warmStart) {
+      if (edges === WARM_START_EDGES) {
+        row.warmStart = {};
+        for (const variant of WARM_VARIANTS) {
+          row.warmStart[variant] = childResult("--warm-child", edges, topology, variant);
+        }
         console.log(
-          `        warm start after +1 % on every demand: ${row.warmStart.solveMs.toFixed(0)} ms, ` +
-            `${row.warmStart.iterations} iterations, ${(row.warmStart.solveMs / row.solveMs).toFixed(2)} of the cold solve; ` +
-            `as a study case: ${row.warmStart.studyCase.solveMs.toFixed(0)} ms, ${row.warmStart.studyCase.iterations} iterations, ` +
-            `${(row.warmStart.studyCase.solveMs / row.solveMs).toFixed(2)} of the cold solve`,
+          "        warm start after +1 % on every demand (ms, iterations, share of the cold solve in the same process): " +
+            WARM_VARIANTS.map((variant) => {
+              const warm = row.warmStart[variant];
+              return `${variant} ${warm.solveMs.toFixed(0)}, ${warm.iterations}, ${(warm.solveMs / warm.coldMs).toFixed(2)}`;
+            }).join("; "),
         );
       }
     }
@@ -158,6 +162,24 @@ function growthExponents(rows) {
   return growth;
 }
 
+/** Run this script as a child process (seed 1) and return the JSON of its last line. */
+function childResult(mode, edges, topology, ...rest) {
+  const output = execFileSync(
+    process.execPath,
+    [
+      "--max-old-space-size=4096",
+      fileURLToPath(import.meta.url),
+      mode,
+      String(edges),
+      topology,
+      "1",
+      ...rest,
+    ],
+    { encoding: "utf8", maxBuffer: 1 << 24 },
+  );
+  return JSON.parse(output.trim().split("\n").pop());
+}
+
 function machineDescription() {
   const cpus = os.cpus();
   return `${cpus[0]?.model ?? "cpu"}, ${cpus.length} logical cores (os.availableParallelism ${os.availableParallelism()}), ${(os.totalmem() / 2 ** 30).toFixed(0)} GiB, ${os.platform()} ${os.release()}, node ${process.version}`;
@@ -174,11 +196,7 @@ async function child(edges, topology, seed) {
   // is: nine of 2,000 edges, three of each topology with other seeds. "Cold" below means a
   // solve from no previous solution, not a cold JavaScript engine (whose first large solve
   // takes about 1.5 times as long while the engine still compiles).
-  for (const warmTopology of ["tree", "mixed", "grid"]) {
-    for (let k = 0; k < 3; k++) {
-      solveNetwork(generateNetwork({ edges: 2000, seed: seed + 1000 + k, topology: warmTopology }));
-    }
-  }
+  warmUp(solveNetwork, generateNetwork, seed);
   const started = performance.now();
   const result = solveNetwork(document);
   const solveMs = performance.now() - started;
@@ -202,43 +220,6 @@ async function child(edges, topology, seed) {
     evaluationMs = Math.min(evaluationMs, performance.now() - evaluationStart);
   }
 
-  let warmStart;
-  if (edges === WARM_START_EDGES && topology === "mixed") {
-    const changed = {
-      ...document,
-      nodes: document.nodes.map((node) =>
-        node.demand === undefined ? node : { ...node, demand: node.demand * 1.01 },
-      ),
-    };
-    const warmStarted = performance.now();
-    const warm = solveNetwork(changed, { initialResult: result });
-    warmStart = {
-      solveMs: performance.now() - warmStarted,
-      iterations: warm.iterations,
-      status: warm.status,
-    };
-    // The same change as a study case makes it: on the checked document (SI values, nothing
-    // read again), warm-started from the case before, with the sparse structure that case left
-    // in the study's holder (src/study/run-study.ts).
-    const { solveCheckedDocument } = await import("../dist/src/solve/solve-network.js");
-    const structureHolder = {};
-    const before = solveCheckedDocument(read.document, { structureHolder });
-    const changedChecked = {
-      ...read.document,
-      nodes: read.document.nodes.map((node) => ({ ...node, demand: node.demand * 1.01 })),
-    };
-    const caseStarted = performance.now();
-    const studyCase = solveCheckedDocument(changedChecked, {
-      initialResult: before,
-      structureHolder,
-    });
-    warmStart.studyCase = {
-      solveMs: performance.now() - caseStarted,
-      iterations: studyCase.iterations,
-      status: studyCase.status,
-    };
-  }
-
   let generic;
   if (edges <= GENERIC_MAX_EDGES) {
     generic = await genericSolve(system, networkSystem, read.document.settings.tolerance);
@@ -258,10 +239,70 @@ async function child(edges, topology, seed) {
       peakMb: peak / 2 ** 20,
       evaluationMs,
       evaluationRatio: solveMs / evaluationMs,
-      ...(warmStart ? { warmStart } : {}),
       ...(generic ? { generic } : {}),
     }),
   );
+}
+
+/**
+ * A warm start, in a process of its own: the network solved cold, then again after every demand
+ * grew by 1 %, from the first solution. Each way in its own process, because a full garbage
+ * collection that the work before has made due (about 40 ms at 10,000 edges, a fifth of a warm
+ * start) falls into whichever solve comes next; the share is of the cold solve in the same
+ * process. The ways:
+ * - plain: `solveNetwork(changed, { initialResult })`, the document read again;
+ * - reuse: the same with the SolveReuse of the cold solve (the sparse analysis, each edge's last
+ *   inner solution and, on large meshed networks, the last factors), as an app that solves again
+ *   after an edit does;
+ * - study: as a study case makes it, on the checked document (SI values, nothing read again)
+ *   with the holder the case before left (src/study/run-study.ts).
+ */
+async function warmChild(edges, topology, seed, variant) {
+  const { generateNetwork } = await import("./generate-network.js");
+  const { solveNetwork, SolveReuse } = await import("../dist/src/index.js");
+  const { readNetworkDocument } = await import("../dist/src/input/read-document.js");
+  const { solveCheckedDocument } = await import("../dist/src/solve/solve-network.js");
+  const document = generateNetwork({ edges, seed, topology });
+  warmUp(solveNetwork, generateNetwork, seed);
+  const withDemands = (doc) => ({
+    ...doc,
+    nodes: doc.nodes.map((node) =>
+      typeof node.demand === "number" ? { ...node, demand: node.demand * 1.01 } : node,
+    ),
+  });
+  let coldMs;
+  let solveWarm;
+  if (variant === "study") {
+    const checked = readNetworkDocument(document).document;
+    const structureHolder = {};
+    const coldStarted = performance.now();
+    const before = solveCheckedDocument(checked, { structureHolder });
+    coldMs = performance.now() - coldStarted;
+    const changed = withDemands(checked);
+    solveWarm = () => solveCheckedDocument(changed, { initialResult: before, structureHolder });
+  } else {
+    const reuse = variant === "reuse" ? new SolveReuse() : undefined;
+    const coldStarted = performance.now();
+    const before = solveNetwork(document, reuse ? { reuse } : {});
+    coldMs = performance.now() - coldStarted;
+    const changed = withDemands(document);
+    solveWarm = () => solveNetwork(changed, { initialResult: before, ...(reuse ? { reuse } : {}) });
+  }
+  const started = performance.now();
+  const warm = solveWarm();
+  const solveMs = performance.now() - started;
+  console.log(
+    JSON.stringify({ solveMs, coldMs, iterations: warm.iterations, status: warm.status }),
+  );
+}
+
+/** Warm the engine (JIT) on nine other networks of 2,000 edges, three of each topology. */
+function warmUp(solveNetwork, generateNetwork, seed) {
+  for (const warmTopology of ["tree", "mixed", "grid"]) {
+    for (let k = 0; k < 3; k++) {
+      solveNetwork(generateNetwork({ edges: 2000, seed: seed + 1000 + k, topology: warmTopology }));
+    }
+  }
 }
 
 /** Scaled unknowns of a result (2 per junction), as the solver holds them. */

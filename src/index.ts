@@ -151,6 +151,7 @@ export type {
 export {
   InternalCheckError,
   type SolveOptions,
+  SolveReuse,
   solveNetwork,
 } from "./solve/solve-network.js";
 export * from "./study/index.js";

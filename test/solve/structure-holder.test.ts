@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { generateNetwork } from "../../benchmarks/generate-network.js";
+import { SolveReuse, solveNetwork } from "../../src/index.js";
 import type { CheckedDocument } from "../../src/input/document-types.js";
 import { checkedDocumentOrThrow } from "../../src/input/read-document.js";
 import { reuseOfStartFactorsPays } from "../../src/solve/frozen-factor-gmres.js";
@@ -117,5 +118,35 @@ describe("a sparse structure shared by solves of one layout (StructureHolder)", 
     });
     expect(largest).toBeLessThan(1e-8);
     expect(warm.balance.largestMassImbalance).toBeLessThan(1e-8);
+  });
+});
+
+describe("SolveReuse: the same sharing through the public solveNetwork", () => {
+  const document = generateNetwork({ edges: 300, seed: 6, topology: "grid" });
+  const changed = {
+    ...document,
+    nodes: document.nodes.map((node) =>
+      typeof node.demand === "number" ? { ...node, demand: node.demand * 1.01 } : node,
+    ),
+  };
+
+  it("leaves a cold solve bit for bit as without it, and a warm one within the tolerance", () => {
+    const reuse = new SolveReuse();
+    const cold = solveNetwork(document, { reuse });
+    expect(cold).toEqual(solveNetwork(document));
+    expect(reuse.held.structure).toBeDefined();
+    const warm = solveNetwork(changed, { reuse, initialResult: cold });
+    const alone = solveNetwork(changed, { initialResult: cold });
+    expect(warm.converged && alone.converged).toBe(true);
+    warm.nodes.forEach((node, i) => {
+      const other = alone.nodes[i]?.pressure as number;
+      expect(Math.abs(node.pressure - other) / other).toBeLessThan(1e-8);
+    });
+  });
+
+  it("refuses anything but a SolveReuse, saying what it expects", () => {
+    expect(() => solveNetwork(document, { reuse: {} as SolveReuse })).toThrow(
+      /options\.reuse: expected a SolveReuse \(made by new SolveReuse\(\)\), got another object/,
+    );
   });
 });
