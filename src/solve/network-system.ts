@@ -190,55 +190,61 @@ export interface SystemEvaluation {
  * between them, such as the cases of a study (the same nodes and edges with other values):
  * - the sparse structure of the Jacobian (its ordering and symbolic factorization): a system
  *   built with the holder takes the structure held there when its pattern is the same, and
- *   otherwise analyses its own and leaves that there;
- * - the edges' warm starts: a system built for a warm start (`takeEdgeStarts`) whose edges are
- *   of the same kinds takes over the last system's per-edge evaluations, so that its first
- *   evaluation starts each pipe's inversion from the inlet Mach number found in the case before
- *   instead of from a low-Mach estimate (at 10,000 edges a first evaluation costs four to five
- *   times a warm one). A solve from the first guess takes fresh ones, so that it gives the same
- *   numbers to the bit as the same solve without the holder;
- * - the factors of the last converged solve's final Jacobian, with which the first Newton
- *   steps of the next case are solved by preconditioned GMRES (src/solve/frozen-factor-gmres.ts)
- *   until they no longer do.
+ *   otherwise analyses its own and leaves that there (and drops the factors held for the old);
+ * - the edges' warm starts, the per-edge evaluations of the last solve that left them
+ *   ({@link leaveEdgeStarts}): a warm-started solve whose gas and edge kinds are the same takes
+ *   them over ({@link takeEdgeStarts}), so that its first evaluation starts each pipe's inversion
+ *   from the inlet Mach number found before instead of from a low-Mach estimate (at 10,000 edges
+ *   a first evaluation costs four to five times a warm one). A solve from the first guess keeps
+ *   its fresh ones, so that it gives the same numbers to the bit as without the holder;
+ * - on large meshed networks, the factors a converged solve's last Newton steps were solved
+ *   with, with which a warm-started solve's steps are solved by preconditioned GMRES
+ *   (src/solve/frozen-factor-gmres.ts) until they no longer converge in a few iterations.
  * The solution does not depend on any of it beyond the solver's tolerances: only analysis,
  * starting values of inner iterations and factorizations are saved.
  */
 export interface StructureHolder {
   structure?: BlockLuStructure;
-  /** The last system's per-edge evaluations and the kind of each edge they were made for. */
-  edgeStarts?: { kinds: string[]; evaluations: PipeFlowEvaluation[] };
-  /** Factors of the last converged solve's final Jacobian (in `structure`). */
+  /** Per-edge evaluations of the last solve, with the gas and edge kinds they were made for. */
+  edgeStarts?: { gas: string; kinds: string[]; evaluations: PipeFlowEvaluation[] };
+  /** Factors the last converged solve's last steps were solved with (in `structure`). */
   factors?: BlockLuFactorization;
 }
 
-/** What an edge's evaluation object holds warm starts for: its kind and pipe model. */
-function edgeStartKind(element: EdgeElement): string {
-  return element.kind === "pipe" ? `pipe ${element.model}` : element.kind;
-}
-
-/** The held per-edge evaluations when they were made for edges of these kinds. */
-function heldEdgeEvaluations(
-  holder: StructureHolder,
-  kinds: readonly string[],
-): PipeFlowEvaluation[] | undefined {
-  const held = holder.edgeStarts;
-  return held !== undefined &&
-    held.kinds.length === kinds.length &&
-    held.kinds.every((kind, e) => kind === kinds[e])
-    ? held.evaluations
-    : undefined;
+/**
+ * What an edge's evaluation holds warm starts for: its kind and pipe model, and the gas model
+ * (a perfect gas's pipes keep an inlet Mach number there, a real gas's a mass flux).
+ */
+function edgeStartKinds(system: NetworkSystem): { gas: string; kinds: string[] } {
+  const gas = system.model.document.gas;
+  return {
+    gas: `${gas.name} ${gas.heatCapacity ?? ""} ${gas.equationOfState ?? ""}`,
+    kinds: system.elements.map((element) =>
+      element.kind === "pipe" ? `pipe ${element.model}` : element.kind,
+    ),
+  };
 }
 
 /**
- * Build the constant parts of a network's system (see {@link StructureHolder}).
- *
- * @param takeEdgeStarts - take the held per-edge warm starts (a warm start from a solved case)
+ * Take the held per-edge evaluations into a system just built, when they were made for the
+ * same gas and edge kinds (a warm start from a solved case; see {@link StructureHolder}).
  */
-export function createNetworkSystem(
-  model: NetworkModel,
-  holder?: StructureHolder,
-  takeEdgeStarts = false,
-): NetworkSystem {
+export function takeEdgeStarts(system: NetworkSystem, holder: StructureHolder): void {
+  const held = holder.edgeStarts;
+  if (held === undefined || held.evaluations.length !== system.edgeCount) return;
+  const { gas, kinds } = edgeStartKinds(system);
+  if (held.gas === gas && held.kinds.every((kind, e) => kind === kinds[e])) {
+    system.evaluations = held.evaluations;
+  }
+}
+
+/** Leave a system's per-edge evaluations in the holder for the next solve of the layout. */
+export function leaveEdgeStarts(system: NetworkSystem, holder: StructureHolder): void {
+  holder.edgeStarts = { ...edgeStartKinds(system), evaluations: system.evaluations };
+}
+
+/** Build the constant parts of a network's system (see {@link StructureHolder}). */
+export function createNetworkSystem(model: NetworkModel, holder?: StructureHolder): NetworkSystem {
   const doc = model.document;
   const gasData = doc.gas;
   const gas = pipeGas(gasData);
@@ -301,17 +307,15 @@ export function createNetworkSystem(
     held !== undefined && hasPattern(held, neighbours)
       ? held
       : analyzeBlockPattern({ size: junctionCount, neighbours });
-  if (holder !== undefined) holder.structure = structure;
+  if (holder !== undefined && holder.structure !== structure) {
+    holder.structure = structure;
+    delete holder.factors;
+  }
   // Fresh evaluations are made here and not in a helper: made in a function of their own, they
   // made the first guess of the next large cold solve 25 ms slower at 10,000 edges (measured on
   // Node 20 and reproducible; where the objects are allocated changes how the engine places
   // them, which is the likely cause).
-  const kinds = holder !== undefined ? elements.map(edgeStartKind) : undefined;
-  const evaluations =
-    (takeEdgeStarts && holder !== undefined && kinds !== undefined
-      ? heldEdgeEvaluations(holder, kinds)
-      : undefined) ?? elements.map(() => new PipeFlowEvaluation());
-  if (holder !== undefined && kinds !== undefined) holder.edgeStarts = { kinds, evaluations };
+  const evaluations = elements.map(() => new PipeFlowEvaluation());
   const edgeBlocks = new Int32Array(4 * model.edgeFrom.length).fill(-1);
   for (let e = 0; e < model.edgeFrom.length; e++) {
     const a = model.unknownIndex[model.edgeFrom[e] as number] as number;

@@ -17,9 +17,11 @@ import {
   emptyEdgeEnds,
   evaluateEdgeAt,
   evaluateSystem,
+  leaveEdgeStarts,
   type NetworkSystem,
   pressureUnknown,
   type StructureHolder,
+  takeEdgeStarts,
   withPressureReferences,
 } from "./network-system.js";
 import { type NewtonOutcome, newtonSolve, ROUND_OFF_CEILING } from "./newton.js";
@@ -57,8 +59,8 @@ export interface SolveOptions {
  * script that loops over cases) and passed to each of them as `reuse`. The solves then share
  * the analysis of the sparse Newton matrix (its fill-reducing ordering and symbolic
  * factorization); a solve that starts from the result before (`initialResult`) also takes each
- * edge's last inner solution and, on large meshed networks, the factors of the last Newton
- * matrix. A solve from the first guess gives the same numbers as without it, bit for bit; a
+ * edge's last inner solution and, on large meshed networks, the factors the last converged
+ * solve's Newton steps were solved with. A solve from the first guess gives the same numbers as without it, bit for bit; a
  * warm-started one agrees with the same warm start without it to the solver tolerance. A
  * network of another layout is solved as without it and leaves its own analysis there. For one
  * solve at a time: solves running at once each need their own.
@@ -70,8 +72,15 @@ export interface SolveOptions {
  * result = solveNetwork(changedDocument, { reuse, initialResult: result });
  */
 export class SolveReuse {
-  /** @internal The solver's own records, read and written by machnet alone. */
-  readonly held: StructureHolder = {};
+  /** The solver's own records, read and written by machnet alone (see heldBy). */
+  // biome-ignore lint/correctness/noUnusedPrivateClassMembers: read by heldBy, outside the class.
+  private readonly held: StructureHolder = {};
+}
+
+/** The records of a SolveReuse (TypeScript's element access reaches a private field). */
+export function heldBy(reuse: SolveReuse): StructureHolder {
+  // biome-ignore lint/complexity/useLiteralKeys: `held` is private; element access is the way in.
+  return reuse["held"];
 }
 
 /**
@@ -166,23 +175,29 @@ export function solveWithState(
     ...(limitMs !== undefined && now !== undefined ? { deadline: now() + limitMs, now } : {}),
   };
   const model = modelOf(checked);
-  const holder = options.reuse?.held ?? options.structureHolder;
-  const built = createNetworkSystem(model, holder, options.initialResult !== undefined);
-  const guess = options.initialResult
-    ? (stateFromResult(built, options.initialResult) ?? initialGuess(built))
-    : initialGuess(built);
+  const holder =
+    (options.reuse !== undefined ? heldBy(options.reuse) : undefined) ?? options.structureHolder;
+  const built = createNetworkSystem(model, holder);
+  const fromResult = options.initialResult
+    ? stateFromResult(built, options.initialResult)
+    : undefined;
+  // Only a warm start takes what the solve before left (StructureHolder); every solve leaves
+  // its edge evaluations for the next.
+  if (holder !== undefined) {
+    if (fromResult !== undefined) takeEdgeStarts(built, holder);
+    leaveEdgeStarts(built, holder);
+  }
+  const guess = fromResult ?? initialGuess(built);
   // Each junction's pressure unknown is then its offset from the highest first-guess pressure of
   // its group of close junctions (defect B3), fixed for this Newton run (a continuation takes
   // its own, and the result is built in the system whose state it is).
   const referenced = withPressureReferences(built, guess);
   let system = referenced.system;
   const start = referenced.x;
-  // A warm start from a solved case of the same layout: its final factors precondition the
-  // first steps (StructureHolder).
+  // A warm start from a solved case of the same layout: the factors its last steps were solved
+  // with precondition these steps (StructureHolder).
   const startFactors =
-    options.initialResult !== undefined &&
-    holder?.structure === built.structure &&
-    reuseOfStartFactorsPays(built.structure)
+    fromResult !== undefined && holder?.factors?.structure === built.structure
       ? holder.factors
       : undefined;
   let outcome = newtonSolve(
@@ -226,8 +241,15 @@ export function solveWithState(
   }
 
   if (holder !== undefined) {
-    if (status === "converged" && outcome.factors !== undefined) holder.factors = outcome.factors;
-    else delete holder.factors;
+    if (
+      status === "converged" &&
+      outcome.factors !== undefined &&
+      reuseOfStartFactorsPays(built.structure)
+    ) {
+      holder.factors = outcome.factors;
+    } else {
+      delete holder.factors;
+    }
   }
   // Not held past here unless the holder keeps them: the factors are the largest arrays of a
   // solve (40 MB at 100,000 edges of mixed network), and the results are built next.

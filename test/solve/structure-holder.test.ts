@@ -5,7 +5,7 @@ import type { CheckedDocument } from "../../src/input/document-types.js";
 import { checkedDocumentOrThrow } from "../../src/input/read-document.js";
 import { reuseOfStartFactorsPays } from "../../src/solve/frozen-factor-gmres.js";
 import type { StructureHolder } from "../../src/solve/network-system.js";
-import { solveCheckedDocument } from "../../src/solve/solve-network.js";
+import { heldBy, solveCheckedDocument } from "../../src/solve/solve-network.js";
 
 /** The checked document with every demand scaled, as a study's demand group does. */
 function withDemands(checked: CheckedDocument, scale: number): CheckedDocument {
@@ -74,6 +74,19 @@ describe("a sparse structure shared by solves of one layout (StructureHolder)", 
     expect(holder.edgeStarts?.evaluations === handed).toBe(false);
   });
 
+  it("gives nothing to a warm start whose previous result does not fit the network", () => {
+    const holder: StructureHolder = {};
+    const before = solveCheckedDocument(base, { structureHolder: holder });
+    const changed = withDemands(base, 1.01);
+    // A result of other nodes: the solve starts from the first guess, as a cold one.
+    const stranger = { nodes: before.nodes.map((node) => ({ ...node, id: `X${node.id}` })) };
+    const result = solveCheckedDocument(changed, {
+      initialResult: stranger,
+      structureHolder: holder,
+    });
+    expect(result).toEqual(solveCheckedDocument(changed));
+  });
+
   it("gives no edge evaluations to a network whose pipes are of another model", () => {
     const holder: StructureHolder = {};
     const before = solveCheckedDocument(base, { structureHolder: holder });
@@ -118,6 +131,18 @@ describe("a sparse structure shared by solves of one layout (StructureHolder)", 
     });
     expect(largest).toBeLessThan(1e-8);
     expect(warm.balance.largestMassImbalance).toBeLessThan(1e-8);
+    // A cold solve after the warm one takes nothing of it: the same as without the holder.
+    expect(solveCheckedDocument(changed, { structureHolder: holder })).toEqual(
+      solveCheckedDocument(changed),
+    );
+    // A warm start that does not converge (one iteration allowed) leaves no factors behind.
+    expect(holder.factors).toBeDefined();
+    const cut = solveCheckedDocument(
+      { ...withDemands(grid, 1.02), settings: { ...grid.settings, maxIterations: 1 } },
+      { initialResult: warm, structureHolder: holder },
+    );
+    expect(cut.converged).toBe(false);
+    expect(holder.factors).toBeUndefined();
   });
 });
 
@@ -134,7 +159,7 @@ describe("SolveReuse: the same sharing through the public solveNetwork", () => {
     const reuse = new SolveReuse();
     const cold = solveNetwork(document, { reuse });
     expect(cold).toEqual(solveNetwork(document));
-    expect(reuse.held.structure).toBeDefined();
+    expect(heldBy(reuse).structure).toBeDefined();
     const warm = solveNetwork(changed, { reuse, initialResult: cold });
     const alone = solveNetwork(changed, { initialResult: cold });
     expect(warm.converged && alone.converged).toBe(true);
