@@ -190,7 +190,7 @@ export interface SystemEvaluation {
  * between them, such as the cases of a study (the same nodes and edges with other values):
  * - the sparse structure of the Jacobian (its ordering and symbolic factorization): a system
  *   built with the holder takes the structure held there when its pattern is the same, and
- *   otherwise analyses its own and leaves that there (and drops the factors held for the old);
+ *   otherwise analyses its own and leaves that there (and drops the rest held for the old);
  * - the edges' warm starts, the per-edge evaluations of the last solve that left them
  *   ({@link leaveEdgeStarts}): a warm-started solve whose gas and edge kinds are the same takes
  *   them over ({@link takeEdgeStarts}), so that its first evaluation starts each pipe's inversion
@@ -308,8 +308,10 @@ export function createNetworkSystem(model: NetworkModel, holder?: StructureHolde
       ? held
       : analyzeBlockPattern({ size: junctionCount, neighbours });
   if (holder !== undefined && holder.structure !== structure) {
+    // Another layout: nothing of the last one's solve is of use to it.
     holder.structure = structure;
     delete holder.factors;
+    delete holder.edgeStarts;
   }
   // Fresh evaluations are made here and not in a helper: made in a function of their own, they
   // made the first guess of the next large cold solve 25 ms slower at 10,000 edges (measured on

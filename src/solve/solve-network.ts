@@ -60,10 +60,10 @@ export interface SolveOptions {
  * the analysis of the sparse Newton matrix (its fill-reducing ordering and symbolic
  * factorization); a solve that starts from the result before (`initialResult`) also takes each
  * edge's last inner solution and, on large meshed networks, the factors the last converged
- * solve's Newton steps were solved with. A solve from the first guess gives the same numbers as without it, bit for bit; a
- * warm-started one agrees with the same warm start without it to the solver tolerance. A
- * network of another layout is solved as without it and leaves its own analysis there. For one
- * solve at a time: solves running at once each need their own.
+ * solve's Newton steps were solved with. A solve from the first guess gives the same numbers as
+ * without it, bit for bit; a warm-started one agrees with the same warm start without it to the
+ * solver tolerance. A network of another layout is solved as without it and leaves its own
+ * analysis there. For one solve at a time: solves running at once each need their own.
  *
  * @example
  * const reuse = new SolveReuse();

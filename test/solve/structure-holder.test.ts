@@ -52,6 +52,12 @@ describe("a sparse structure shared by solves of one layout (StructureHolder)", 
     const result = solveCheckedDocument(other, { structureHolder: holder });
     expect(holder.structure).not.toBe(first);
     expect(result).toEqual(solveCheckedDocument(other));
+    // Warm-started from the first layout's result (the same nodes), it takes nothing either.
+    const fresh: StructureHolder = {};
+    const before = solveCheckedDocument(base, { structureHolder: fresh });
+    expect(solveCheckedDocument(other, { initialResult: before, structureHolder: fresh })).toEqual(
+      solveCheckedDocument(other, { initialResult: before }),
+    );
   });
 
   it("hands a warm start the last case's edge evaluations, and a cold solve fresh ones", () => {
