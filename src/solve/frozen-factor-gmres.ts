@@ -35,9 +35,14 @@ export const FROZEN_FACTOR_MIN_JUNCTIONS = 1500;
  * so it always factors and solves exactly.
  */
 export function reuseOfFactorsPays(structure: BlockLuStructure): boolean {
+  return factorizationCostsOver(structure, FACTOR_COST_RATIO);
+}
+
+/** At least FROZEN_FACTOR_MIN_JUNCTIONS junctions and a factorization over `ratio` solves. */
+function factorizationCostsOver(structure: BlockLuStructure, ratio: number): boolean {
   return (
     structure.size >= FROZEN_FACTOR_MIN_JUNCTIONS &&
-    structure.factorUpdates > FACTOR_COST_RATIO * structure.solveBlocks
+    structure.factorUpdates > ratio * structure.solveBlocks
   );
 }
 /**
@@ -56,10 +61,7 @@ const FACTOR_COST_RATIO = 35;
  * Jacobians of a cold solve are to its later ones.
  */
 export function reuseOfStartFactorsPays(structure: BlockLuStructure): boolean {
-  return (
-    structure.size >= FROZEN_FACTOR_MIN_JUNCTIONS &&
-    structure.factorUpdates > START_FACTOR_COST_RATIO * structure.solveBlocks
-  );
+  return factorizationCostsOver(structure, START_FACTOR_COST_RATIO);
 }
 /**
  * Measured (Newton's time after every demand grew by 1 %, mean of 15 cases, factoring every

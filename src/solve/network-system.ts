@@ -192,8 +192,8 @@ export interface SystemEvaluation {
  *   built with the holder takes the structure held there when its pattern is the same, and
  *   otherwise analyses its own and leaves that there (and drops the rest held for the old);
  * - the edges' warm starts, the per-edge evaluations of the last solve that left them
- *   ({@link leaveEdgeStarts}): a warm-started solve whose gas and edge kinds are the same takes
- *   them over ({@link takeEdgeStarts}), so that its first evaluation starts each pipe's inversion
+ *   ({@link handOverEdgeStarts}): a warm-started solve whose gas and edge kinds are the same
+ *   takes them over, so that its first evaluation starts each pipe's inversion
  *   from the inlet Mach number found before instead of from a low-Mach estimate (at 10,000 edges
  *   a first evaluation costs four to five times a warm one). A solve from the first guess keeps
  *   its fresh ones, so that it gives the same numbers to the bit as without the holder;
@@ -226,21 +226,28 @@ function edgeStartKinds(system: NetworkSystem): { gas: string; kinds: string[] }
 }
 
 /**
- * Take the held per-edge evaluations into a system just built, when they were made for the
- * same gas and edge kinds (a warm start from a solved case; see {@link StructureHolder}).
+ * Hand the edges' warm starts over through the holder: a system just built for a warm start
+ * (`take`) takes the held per-edge evaluations when they were made for the same gas and edge
+ * kinds, and every system leaves its own there for the next solve of the layout (see
+ * {@link StructureHolder}).
  */
-export function takeEdgeStarts(system: NetworkSystem, holder: StructureHolder): void {
-  const held = holder.edgeStarts;
-  if (held === undefined || held.evaluations.length !== system.edgeCount) return;
+export function handOverEdgeStarts(
+  system: NetworkSystem,
+  holder: StructureHolder,
+  take: boolean,
+): void {
   const { gas, kinds } = edgeStartKinds(system);
-  if (held.gas === gas && held.kinds.every((kind, e) => kind === kinds[e])) {
+  const held = holder.edgeStarts;
+  if (
+    take &&
+    held !== undefined &&
+    held.gas === gas &&
+    held.kinds.length === kinds.length &&
+    held.kinds.every((kind, e) => kind === kinds[e])
+  ) {
     system.evaluations = held.evaluations;
   }
-}
-
-/** Leave a system's per-edge evaluations in the holder for the next solve of the layout. */
-export function leaveEdgeStarts(system: NetworkSystem, holder: StructureHolder): void {
-  holder.edgeStarts = { ...edgeStartKinds(system), evaluations: system.evaluations };
+  holder.edgeStarts = { gas, kinds, evaluations: system.evaluations };
 }
 
 /** Build the constant parts of a network's system (see {@link StructureHolder}). */

@@ -17,11 +17,10 @@ import {
   emptyEdgeEnds,
   evaluateEdgeAt,
   evaluateSystem,
-  leaveEdgeStarts,
+  handOverEdgeStarts,
   type NetworkSystem,
   pressureUnknown,
   type StructureHolder,
-  takeEdgeStarts,
   withPressureReferences,
 } from "./network-system.js";
 import { type NewtonOutcome, newtonSolve, ROUND_OFF_CEILING } from "./newton.js";
@@ -183,10 +182,7 @@ export function solveWithState(
     : undefined;
   // Only a warm start takes what the solve before left (StructureHolder); every solve leaves
   // its edge evaluations for the next.
-  if (holder !== undefined) {
-    if (fromResult !== undefined) takeEdgeStarts(built, holder);
-    leaveEdgeStarts(built, holder);
-  }
+  if (holder !== undefined) handOverEdgeStarts(built, holder, fromResult !== undefined);
   const guess = fromResult ?? initialGuess(built);
   // Each junction's pressure unknown is then its offset from the highest first-guess pressure of
   // its group of close junctions (defect B3), fixed for this Newton run (a continuation takes
