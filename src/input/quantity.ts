@@ -1,27 +1,19 @@
 /**
  * Quantity strings from an input document ("8 bar(g)", "3 in", "1200 Nm3/h") to SI numbers.
  *
- * mathjs does every plain unit conversion. Two rules are written by hand here because no unit
- * library covers them: gauge pressure (relative to an ambient pressure the caller gives) and
+ * unitmath does every plain unit conversion (through unit-text.ts, which reads the structure of
+ * the unit text). Two rules are written by hand here because no unit library covers them: gauge pressure (relative to an ambient pressure the caller gives) and
  * normal or standard volumetric flow, which is an amount of gas and becomes a mass flow through
  * the ideal-gas density at a named reference state (see reference-conditions.ts).
  */
 
-import type { Unit } from "mathjs";
-import { create, type FactoryFunctionMap, unitDependencies } from "mathjs";
 import type { InputIssue } from "./issues.js";
 import {
   REFERENCE_CONDITIONS,
   type ReferenceCondition,
   referenceDensity,
 } from "./reference-conditions.js";
-
-/**
- * A private mathjs instance with the unit functions only. It is built once and never changed
- * (no createUnit, no config), so it holds no state that a caller could see.
- */
-// mathjs types every exported dependency map as possibly undefined under noUncheckedIndexedAccess.
-const math = create({ unitDependencies: unitDependencies as FactoryFunctionMap });
+import { convertUnit, type KnownUnit, knownUnit, sameDimension, siBaseUnits } from "./unit-text.js";
 
 /** What a quantity measures; decides the accepted units and the SI unit of the result. */
 export type QuantityKind =
@@ -74,7 +66,7 @@ export type QuantityResult =
 interface KindSpec {
   /** "a pressure", for messages. */
   noun: string;
-  /** The SI unit in mathjs syntax; null for dimensionless. */
+  /** The SI unit in the unit-text grammar (unit-text.ts); null for dimensionless. */
   si: string | null;
   /** Example values, for messages. */
   examples: string;
@@ -243,7 +235,7 @@ const REFERENCE_VOLUME_PATTERNS: readonly {
   },
 ];
 
-/** Time units in reference-volume flows, in mathjs syntax. */
+/** Time units in reference-volume flows, as unitmath names them. */
 const TIME_UNITS: Readonly<Record<string, string>> = {
   s: "s",
   min: "min",
@@ -273,7 +265,7 @@ const TIME_UNITS: Readonly<Record<string, string>> = {
  *   converted with the gas density at the reference state, rho_ref = p_ref M / (Ru T_ref), which
  *   needs `molarMass`. An actual volume flow ("m3/h", "cfm") is refused: it needs the local
  *   density. Negative flows are allowed.
- * - Other kinds: any unit mathjs reads with the right dimension. The sign is not checked.
+ * - Other kinds: any unit unitmath knows with the right dimension. The sign is not checked.
  *
  * Everything else (an unknown unit, a wrong dimension, NaN, Infinity, a non-number) gives an
  * issue with code "unit" at `context.path`.
@@ -416,7 +408,7 @@ function convertPressure(
   return checkBounds(absolute, input, kind, path, notes, description);
 }
 
-/** Convert "<magnitude> <unit>" with mathjs after checking the unit's dimension. */
+/** Convert "<magnitude> <unit>" after checking the unit's dimension. */
 function convertPlain(
   input: string,
   magnitude: number,
@@ -427,10 +419,12 @@ function convertPlain(
 ): Conversion {
   const si = spec.si as string;
   const normalized = normalizeUnitText(unitText, kind);
-  let parsed: Unit;
-  try {
-    parsed = math.unit(normalized);
-  } catch {
+  const parsed = knownUnit(normalized);
+  if (!parsed.ok && parsed.problem === "number") {
+    // A number inside the unit text ("7 2 m"): not one quantity.
+    return failure(notAQuantity(input, spec, path));
+  }
+  if (!parsed.ok) {
     return failure(
       unitIssue(
         input,
@@ -439,12 +433,8 @@ function convertPlain(
       ),
     );
   }
-  if (parsed.value !== null) {
-    // mathjs read a number inside the unit text ("7 2 m"): not one quantity.
-    return failure(notAQuantity(input, spec, path));
-  }
-  if (!parsed.equalBase(math.unit(si))) {
-    const found = dimensionName(parsed);
+  if (!sameDimension(parsed.unit, unitNamed(si))) {
+    const found = dimensionName(parsed.unit);
     if (kind === "massFlow" && found === "a volumetric flow") {
       return failure(
         unitIssue(
@@ -467,14 +457,14 @@ function convertPlain(
       ),
     );
   }
-  return { ok: true, value: math.unit(magnitude, normalized).toNumber(si) };
+  return { ok: true, value: convertUnit(magnitude, parsed.unit, si) };
 }
 
 /** A normal/standard flow unit read: its state, a multiple (1e6 for MMscfd), volume per time. */
 interface ReferenceVolumeFlow {
   condition: ReferenceCondition;
   multiple: number;
-  /** Volume per time in mathjs syntax, "m^3/h". */
+  /** Volume per time in the unit-text grammar, "m^3/h". */
   volumeFlowUnit: string;
 }
 
@@ -524,17 +514,15 @@ function convertReferenceVolumeFlow(
       ),
     );
   }
-  // The volume per time itself is a plain unit conversion: mathjs.
-  const volumeFlow = math
-    .unit(magnitude * reference.multiple, reference.volumeFlowUnit)
-    .toNumber("m^3/s");
+  // The volume per time itself is a plain unit conversion.
+  const volumeFlow = convertUnit(magnitude * reference.multiple, reference.volumeFlowUnit, "m^3/s");
   const value = volumeFlow * referenceDensity(reference.condition, molarMass);
   return { ok: true, value, notes: [] };
 }
 
 /**
- * Rewrite common spellings into mathjs syntax: °C -> degC, µ -> u, "·" -> space, ft2 -> ft^2,
- * psi -> lbf/in^2 (mathjs stores psi rounded; lbf/in^2 is its exact definition), cP -> mPa s.
+ * Rewrite common spellings into the unit-text grammar: °C -> degC, µ -> u, "·" -> space,
+ * ft2 -> ft^2, psi -> lbf/in^2 (its exact definition), cP -> mPa s.
  */
 function normalizeUnitText(unitText: string, kind: QuantityKind): string {
   let text = unitText
@@ -551,7 +539,7 @@ function normalizeUnitText(unitText: string, kind: QuantityKind): string {
   return text;
 }
 
-/** Unit names mathjs lacks or spells otherwise, for one kind of quantity. */
+/** Unit names unitmath lacks or spells otherwise, for one kind of quantity. */
 function wordAlias(word: string, kind: QuantityKind): string | undefined {
   switch (word) {
     case "psi":
@@ -565,7 +553,7 @@ function wordAlias(word: string, kind: QuantityKind): string | undefined {
       return "BTU";
   }
   if (kind === "viscosity") {
-    // 1 P = 1 g/(cm s) = 0.1 Pa s (CGS definition), so 1 cP = 1 mPa s. "cp" is a cup in mathjs.
+    // 1 P = 1 g/(cm s) = 0.1 Pa s (CGS definition), so 1 cP = 1 mPa s. "cp" could be read as a cup.
     if (word === "cP" || word === "cp" || word === "centipoise") return "(mPa s)";
     if (word === "poise") return "(dPa s)";
   }
@@ -619,12 +607,19 @@ function siLabel(si: string): string {
   return si.replace(/\^/g, "");
 }
 
-function dimensionName(parsed: Unit): string {
+function dimensionName(parsed: KnownUnit): string {
   for (const [name, reference] of DIMENSION_NAMES) {
-    if (parsed.equalBase(math.unit(reference))) return name;
+    if (sameDimension(parsed, unitNamed(reference))) return name;
   }
-  const siUnits = parsed.toSI().formatUnits();
+  const siUnits = siBaseUnits(parsed);
   return siUnits === "" ? "a plain number" : `a quantity in ${siUnits}`;
+}
+
+/** A unit of this module's own tables (always known). */
+function unitNamed(text: string): KnownUnit {
+  const known = knownUnit(text);
+  if (!known.ok) throw new Error(`unit table names an unknown unit "${text}"`);
+  return known.unit;
 }
 
 function notAQuantity(input: unknown, spec: KindSpec, path: string): InputIssue {

@@ -3,19 +3,12 @@
  * density of a gas at such a state.
  *
  * Written by hand: no unit library covers reference-state volumes, because a normal or standard
- * cubic metre is an amount of gas, not a volume. mathjs only converts the plain units the states
- * are quoted in (60 degF, 14.696 psia) to SI.
+ * cubic metre is an amount of gas, not a volume. unitmath only converts the plain units the
+ * states are quoted in (60 degF, 14.696 psia) to SI.
  */
 
-import { create, type FactoryFunctionMap, unitDependencies } from "mathjs";
 import { MOLAR_GAS_CONSTANT } from "../gas/gas.js";
-
-/**
- * A private mathjs instance with the unit functions only. It is built once and never changed
- * (no createUnit, no config), so it holds no state that a caller could see.
- */
-// mathjs types every exported dependency map as possibly undefined under noUncheckedIndexedAccess.
-const math = create({ unitDependencies: unitDependencies as FactoryFunctionMap });
+import { convertUnit } from "./unit-text.js";
 
 /** The names of the reference states machnet reads volumetric flows at. */
 export type ReferenceConditionName = "normal" | "standard" | "usStandard";
@@ -49,23 +42,23 @@ export const REFERENCE_CONDITIONS: Readonly<Record<ReferenceConditionName, Refer
   Object.freeze({
     normal: Object.freeze({
       name: "normal",
-      temperature: math.unit(0, "degC").toNumber("K"),
-      pressure: math.unit(101.325, "kPa").toNumber("Pa"),
+      temperature: convertUnit(0, "degC", "K"),
+      pressure: convertUnit(101.325, "kPa", "Pa"),
       standard: "DIN 1343",
       units: Object.freeze(["Nm3/h", "Nm3/min", "Nm3/s", "Nm3/d", "NL/min"]),
     }),
     standard: Object.freeze({
       name: "standard",
-      temperature: math.unit(15, "degC").toNumber("K"),
-      pressure: math.unit(101.325, "kPa").toNumber("Pa"),
+      temperature: convertUnit(15, "degC", "K"),
+      pressure: convertUnit(101.325, "kPa", "Pa"),
       standard: "ISO 13443",
       units: Object.freeze(["Sm3/h", "Sm3/min", "Sm3/s", "Sm3/d"]),
     }),
     usStandard: Object.freeze({
       name: "usStandard",
-      temperature: math.unit(60, "degF").toNumber("K"),
+      temperature: convertUnit(60, "degF", "K"),
       // psi as pound-force per square inch: the exact definition (lbf = 0.45359237 kg x 9.80665 m/s2).
-      pressure: math.unit(14.696, "lbf/in^2").toNumber("Pa"),
+      pressure: convertUnit(14.696, "lbf/in^2", "Pa"),
       standard: "US common practice (60 degF, 14.696 psia)",
       units: Object.freeze(["scfm", "scfh", "scfd", "MMscfd"]),
     }),

@@ -1,17 +1,10 @@
 /**
- * Display units: SI results to the unit set a user reads tables in. mathjs does the conversions;
- * gauge pressure (relative to an ambient the caller gives) is the one rule written by hand,
- * because no unit library knows the ambient.
+ * Display units: SI results to the unit set a user reads tables in. unitmath does the conversions
+ * (through input/unit-text.ts); gauge pressure (relative to an ambient the caller gives) is the
+ * one rule written by hand, because no unit library knows the ambient.
  */
 
-import { create, type FactoryFunctionMap, unitDependencies } from "mathjs";
-
-/**
- * A private mathjs instance with the unit functions only. It is built once and never changed
- * (no createUnit, no config), so it holds no state that a caller could see.
- */
-// mathjs types every exported dependency map as possibly undefined under noUncheckedIndexedAccess.
-const math = create({ unitDependencies: unitDependencies as FactoryFunctionMap });
+import { convertUnit } from "../input/unit-text.js";
 
 /** `si`: SI base units; `metric`: bar(a), °C, mm, kg/h; `us`: psia, °F, in, lb/h. */
 export type UnitSetName = "si" | "metric" | "us";
@@ -45,13 +38,13 @@ export interface DisplayUnit {
 /** The unit sets, in the order to list them (command-line help, docs). */
 export const UNIT_SET_NAMES: readonly UnitSetName[] = Object.freeze(["si", "metric", "us"]);
 
-/** A label and the same unit in mathjs syntax (null: dimensionless). */
+/** A label and the same unit in the unit-text grammar (null: dimensionless). */
 interface UnitChoice {
   label: string;
   unit: string | null;
 }
 
-/** The SI unit of each kind, in mathjs syntax. */
+/** The SI unit of each kind, in the unit-text grammar. */
 const SI_UNITS: Readonly<Record<DisplayKind, string | null>> = {
   pressure: "Pa",
   pressureDifference: "Pa",
@@ -68,7 +61,7 @@ const SI_UNITS: Readonly<Record<DisplayKind, string | null>> = {
   dimensionless: null,
 };
 
-// psi is written lbf/in^2 for mathjs: its exact definition (mathjs stores psi rounded).
+// psi is written lbf/in^2, its exact definition.
 const UNIT_SETS: Readonly<Record<UnitSetName, Readonly<Record<DisplayKind, UnitChoice>>>> = {
   si: {
     pressure: { label: "Pa", unit: "Pa" },
@@ -146,7 +139,7 @@ const GAUGE_LABELS: Readonly<Record<UnitSetName, string>> = {
  * @param set - the unit set
  * @param kind - what the value measures
  * @returns the label and the conversion from SI
- * @remarks Conversions by mathjs from the unit definitions (1 in = 25.4 mm, 1 lb = 0.45359237 kg,
+ * @remarks Conversions by unitmath from the unit definitions (1 in = 25.4 mm, 1 lb = 0.45359237 kg,
  *   1 lbf = 1 lb x 9.80665 m/s2, psi = lbf/in2, Btu the International Table Btu = 1055.05585262 J,
  *   1 cP = 1 mPa·s). Labels are also accepted by `parseQuantity`.
  * @throws RangeError for a set or kind that does not exist (callers without type checks)
@@ -167,12 +160,12 @@ export function displayUnit(set: UnitSetName, kind: DisplayKind): DisplayUnit {
   }
   const target = choice.unit;
   if (target === null || si === null) return { label: choice.label, fromSI: (value) => value };
-  const offset = math.unit(0, si).toNumber(target);
+  const offset = convertUnit(0, si, target);
   if (offset !== 0) {
-    // An offset scale (°C, °F): let mathjs convert each value.
-    return { label: choice.label, fromSI: (value) => math.unit(value, si).toNumber(target) };
+    // An offset scale (°C, °F): let unitmath convert each value.
+    return { label: choice.label, fromSI: (value) => convertUnit(value, si, target) };
   }
-  const factor = math.unit(1, si).toNumber(target);
+  const factor = convertUnit(1, si, target);
   return { label: choice.label, fromSI: (value) => value * factor };
 }
 

@@ -121,7 +121,7 @@ describe("machnet state: static pressure and temperature with one flow quantity"
     expectRelative(state.mach, 150 / density / Math.sqrt(GAMMA * R_AIR * t), CLOSED_FORM);
   });
 
-  test("--mass-flux in US units reads through mathjs: 30 lb/(ft2 s)", async () => {
+  test("--mass-flux in US units reads through the unit library: 30 lb/(ft2 s)", async () => {
     // 1 lb = 0.45359237 kg, 1 ft = 0.3048 m (1959 international yard and pound).
     const flux = (30 * 0.45359237) / 0.3048 ** 2;
     const metric = await stateJson([
