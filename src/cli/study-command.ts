@@ -58,9 +58,9 @@ export interface StudyRuntime {
 const SWEEP_FORMATS = ["csv", "jsonl"] as const;
 
 /**
- * Cases per worker thread when --workers is not given. Loading machnet (its unit library above
- * all) takes a worker thread 2 to 5 s, the time of about a thousand cases of a small network in
- * one thread; below that a second thread does not pay.
+ * Cases per worker thread when --workers is not given. Starting a pool (loading machnet, 0.11 s
+ * per thread on an idle machine, and compiling it) took about 0.4 s, the time of a few thousand
+ * cases of a small network in one thread (docs/study.md); below that a second thread does not pay.
  */
 const CASES_PER_THREAD = 1000;
 const ANSWER_FORMATS = ["text", "json"] as const;

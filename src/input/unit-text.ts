@@ -16,7 +16,7 @@
  *   optional "^" and a decimal power: "m^2", "s^-1", "(m s)^2".
  */
 
-import unit from "unitmath";
+import unit, { type UnitMathUnit } from "unitmath";
 
 /** Unit text read: a flat list of unit names with powers, or why it could not be read. */
 export type UnitTextReading =
@@ -34,7 +34,27 @@ export interface UnitTerm {
 export interface KnownUnit {
   /** The unit as unitmath reads it: names with signed powers, "kg m^-2 s^-1". */
   readonly flat: string;
+  /**
+   * The SI value of one of this unit (1 for "Pa", 100000 for "bar"); null for a lone unit of an
+   * offset scale (degC, degF), which only unitmath converts.
+   */
+  readonly scale: number | null;
 }
+
+/** unitmath's reading of each flat unit text looked up so far, for dimension checks. */
+interface LookedUp {
+  known: KnownUnit;
+  parsed: UnitMathUnit;
+}
+
+/**
+ * A memo of lookups, so that a document with a unit on every pipe parses each unit text once
+ * (unitmath takes a few microseconds per text; 100,000 pipes hold several times as many
+ * quantities). It holds pure results of fixed definitions, so no caller can see it; it is
+ * emptied when it reaches {@link MEMO_SIZE} texts.
+ */
+const memo = new Map<string, LookedUp | "number" | "unknown">();
+const MEMO_SIZE = 1000;
 
 /** "^" followed by a decimal power with an optional sign. */
 const POWER = /^\^\s*([+-]?(?:\d+(?:\.\d*)?|\.\d+))/;
@@ -115,35 +135,26 @@ export function readUnitText(text: string): UnitTextReading {
 }
 
 /**
- * Look up unit text: the unit, or null when the text cannot be read or names a unit unitmath
- * does not know. `problem` tells a number inside the unit text from any other failure.
+ * Look up unit text: the unit, or why not: `number` for a number inside the unit text ("2 m"),
+ * `unknown` for text that cannot be read or names a unit unitmath does not know.
  */
 export function knownUnit(
   text: string,
 ): { ok: true; unit: KnownUnit } | { ok: false; problem: "number" | "unknown" } {
-  const reading = readUnitText(text);
-  if (!reading.ok)
-    return { ok: false, problem: reading.problem === "number" ? "number" : "unknown" };
-  const flat = reading.terms
-    .filter((term) => term.power !== 0)
-    .map((term) => (term.power === 1 ? term.name : `${term.name}^${term.power}`))
-    .join(" ");
-  try {
-    unit(1, flat);
-  } catch {
-    return { ok: false, problem: "unknown" };
-  }
-  return { ok: true, unit: { flat } };
+  const found = lookUp(text);
+  return typeof found === "string"
+    ? { ok: false, problem: found }
+    : { ok: true, unit: found.known };
 }
 
 /** True when both units measure the same thing (the same powers of the SI base quantities). */
 export function sameDimension(a: KnownUnit, b: KnownUnit): boolean {
-  return unit(1, a.flat).equalQuantity(unit(1, b.flat));
+  return parsedUnit(a).equalQuantity(parsedUnit(b));
 }
 
 /** The SI base units of a unit, for messages: "kg / m^2 s"; "" for a plain number. */
 export function siBaseUnits(known: KnownUnit): string {
-  return unit(1, known.flat).toSI().getUnits().toString().trim();
+  return parsedUnit(known).toSI().getUnits().toString().trim();
 }
 
 /**
@@ -161,6 +172,12 @@ export function convertUnit(
 ): number {
   const source = unitOf(from);
   const target = unitOf(to);
+  if (!sameDimension(source, target)) {
+    throw new Error(`cannot convert "${source.flat}" to "${target.flat}": different dimensions`);
+  }
+  if (source.scale !== null && target.scale !== null) {
+    return target.scale === 1 ? value * source.scale : (value * source.scale) / target.scale;
+  }
   const converted = unit(value, source.flat).to(target.flat).getValue();
   if (converted === null) throw new Error(`no value converting ${value} ${source.flat}`);
   return converted;
@@ -171,4 +188,42 @@ function unitOf(text: string | KnownUnit): KnownUnit {
   const known = knownUnit(text);
   if (!known.ok) throw new Error(`unknown unit "${text}"`);
   return known.unit;
+}
+
+function parsedUnit(known: KnownUnit): UnitMathUnit {
+  const found = lookUp(known.flat);
+  if (typeof found === "string") throw new Error(`unknown unit "${known.flat}"`);
+  return found.parsed;
+}
+
+/** Read, flatten and look up unit text, through the memo. */
+function lookUp(text: string): LookedUp | "number" | "unknown" {
+  const remembered = memo.get(text);
+  if (remembered !== undefined) return remembered;
+  const found = lookUpAnew(text);
+  if (memo.size >= MEMO_SIZE) memo.clear();
+  memo.set(text, found);
+  return found;
+}
+
+function lookUpAnew(text: string): LookedUp | "number" | "unknown" {
+  const reading = readUnitText(text);
+  if (!reading.ok) return reading.problem === "number" ? "number" : "unknown";
+  const flat = reading.terms
+    .filter((term) => term.power !== 0)
+    .map((term) => (term.power === 1 ? term.name : `${term.name}^${term.power}`))
+    .join(" ");
+  let parsed: UnitMathUnit;
+  let zero: number | null;
+  let one: number | null;
+  try {
+    parsed = unit(flat);
+    zero = unit(0, flat).toSI().getValue();
+    one = unit(1, flat).toSI().getValue();
+  } catch {
+    return "unknown";
+  }
+  if (zero === null || one === null) return "unknown";
+  // An offset scale (a lone degC or degF) has a nonzero SI value at zero.
+  return { known: { flat, scale: zero === 0 ? one : null }, parsed };
 }

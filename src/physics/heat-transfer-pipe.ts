@@ -165,8 +165,9 @@ export class HeatTransferScratch {
   length = 1;
   /** M^2 at the last point evaluated without perturbation. */
   lastMachSquared = 0;
-  /** Integration statistics: runs and right-hand-side evaluations since creation. */
+  /** Integration statistics: runs, accepted steps and right-hand-side evaluations since creation. */
   runs = 0;
+  acceptedSteps = 0;
   evaluations = 0;
   /** Last accepted 1 - M^2 and the one before, with positions and states (sonic extrapolation). */
   private previousMargin = 1;
@@ -452,6 +453,7 @@ export class HeatTransferScratch {
       1e-14 * length,
       this.accept,
     );
+    this.acceptedSteps += integrator.acceptedSteps;
     const run = this.run;
     const y = integrator.y;
     run.pressure = p1 + (y[0] as number);

@@ -13,7 +13,7 @@ import {
   edgeEndsAt,
   emptyEdgeEnds,
   enthalpyTemperature,
-  evaluateEdgeAt,
+  evaluateEdgeWarm,
   type NetworkSystem,
   NO_FLOW_WEIGHT,
   networkThroughput,
@@ -77,13 +77,7 @@ export function resultsAtState(system: NetworkSystem, x: Float64Array): StateRes
     const tUp = edgeEnds.upstreamTemperature;
     // Evaluated afresh from the final node states, with the capacity (warm-started from the
     // solver's last evaluation of this edge for speed: the root does not depend on the start).
-    const evaluation = evaluateEdgeAt(
-      system,
-      e,
-      edgeEnds,
-      system.evaluations[e] as PipeFlowEvaluation,
-      true,
-    );
+    const evaluation = evaluateEdgeWarm(system, e, edgeEnds, true);
     const flow = evaluation.massFlow;
     const signed = forward ? flow : -flow;
     netOutflow[from] = (netOutflow[from] as number) + signed;

@@ -103,8 +103,14 @@ export interface NetworkSystem {
   structure: BlockLuStructure;
   /** Per edge: the four block indices (from,from), (from,to), (to,from), (to,to), -1 if absent. */
   edgeBlocks: Int32Array;
-  /** One reusable evaluation per edge (warm starts live there). */
-  evaluations: PipeFlowEvaluation[];
+  /** Per edge: the starting values of its inner iterations, kept from one evaluation to the next. */
+  warmStarts: EdgeWarmStarts;
+  /**
+   * The one record every edge's relation is evaluated into, in turn (its results are read before
+   * the next edge's evaluation; {@link evaluateEdgeWarm} moves the warm starts in and out).
+   * One record instead of one per edge saves about 550 bytes per edge (55 MB at 100,000 edges).
+   */
+  edgeEvaluation: PipeFlowEvaluation;
   /**
    * Working records for the enthalpy of a gas with cp(T) or an equation of state; undefined for
    * a calorically perfect ideal gas, whose energy rows balance temperatures.
@@ -115,6 +121,34 @@ export interface NetworkSystem {
    * (systems derived from this one share them; evaluations run one at a time).
    */
   scratch: EvaluationScratch;
+}
+
+/**
+ * Per edge, where each pipe's inner iterations start in its next evaluation: the inlet Mach
+ * number, the inlet Mach number at capacity and the Fanno exit offset M2 - M1 found last (a real
+ * gas's pipes keep a mass flux and a pressure ratio there), and the Colebrook-White root
+ * 1/sqrt(fD) found last; NaN: none yet, start from an estimate. `choked` is whether the last
+ * evaluation found the edge choked (then the next solves its capacity first). See
+ * PipeFlowEvaluation's `last...` and `choked` fields and `friction.colebrook.inverseRoot`, which
+ * these are copied to and from.
+ */
+export interface EdgeWarmStarts {
+  choked: Uint8Array;
+  inletMach: Float64Array;
+  capacityInletMach: Float64Array;
+  exitOffset: Float64Array;
+  frictionInverseRoot: Float64Array;
+}
+
+/** Warm starts of `edgeCount` edges that have not been evaluated yet. */
+function freshWarmStarts(edgeCount: number): EdgeWarmStarts {
+  return {
+    choked: new Uint8Array(edgeCount),
+    inletMach: new Float64Array(edgeCount).fill(Number.NaN),
+    capacityInletMach: new Float64Array(edgeCount).fill(Number.NaN),
+    exitOffset: new Float64Array(edgeCount).fill(Number.NaN),
+    frictionInverseRoot: new Float64Array(edgeCount).fill(Number.NaN),
+  };
 }
 
 /** Per-edge and per-junction working arrays of {@link evaluateSystem}. */
@@ -191,8 +225,8 @@ export interface SystemEvaluation {
  * - the sparse structure of the Jacobian (its ordering and symbolic factorization): a system
  *   built with the holder takes the structure held there when its pattern is the same, and
  *   otherwise analyses its own and leaves that there (and drops the rest held for the old);
- * - the edges' warm starts, the per-edge evaluations of the last solve that left them
- *   ({@link handOverEdgeStarts}): a warm-started solve whose gas and edge kinds are the same
+ * - the edges' warm starts of the last solve that left them ({@link EdgeWarmStarts},
+ *   {@link handOverEdgeStarts}): a warm-started solve whose gas and edge kinds are the same
  *   takes them over, so that its first evaluation starts each pipe's inversion
  *   from the inlet Mach number found before instead of from a low-Mach estimate (at 10,000 edges
  *   a first evaluation costs four to five times a warm one). A solve from the first guess keeps
@@ -205,8 +239,8 @@ export interface SystemEvaluation {
  */
 export interface StructureHolder {
   structure?: BlockLuStructure;
-  /** Per-edge evaluations of the last solve, with the gas and edge kinds they were made for. */
-  edgeStarts?: { gas: string; kinds: string[]; evaluations: PipeFlowEvaluation[] };
+  /** The edges' warm starts of the last solve, with the gas and edge kinds they were made for. */
+  edgeStarts?: { gas: string; kinds: string[]; warmStarts: EdgeWarmStarts };
   /** Factors the last converged solve's last steps were solved with (in `structure`). */
   factors?: BlockLuFactorization;
 }
@@ -227,7 +261,7 @@ function edgeStartKinds(system: NetworkSystem): { gas: string; kinds: string[] }
 
 /**
  * Hand the edges' warm starts over through the holder: a system just built for a warm start
- * (`take`) takes the held per-edge evaluations when they were made for the same gas and edge
+ * (`take`) takes the held warm starts when they were made for the same gas and edge
  * kinds, and every system leaves its own there for the next solve of the layout (see
  * {@link StructureHolder}).
  */
@@ -245,9 +279,9 @@ export function handOverEdgeStarts(
     held.kinds.length === kinds.length &&
     held.kinds.every((kind, e) => kind === kinds[e])
   ) {
-    system.evaluations = held.evaluations;
+    system.warmStarts = held.warmStarts;
   }
-  holder.edgeStarts = { gas, kinds, evaluations: system.evaluations };
+  holder.edgeStarts = { gas, kinds, warmStarts: system.warmStarts };
 }
 
 /** Build the constant parts of a network's system (see {@link StructureHolder}). */
@@ -320,11 +354,6 @@ export function createNetworkSystem(model: NetworkModel, holder?: StructureHolde
     delete holder.factors;
     delete holder.edgeStarts;
   }
-  // Fresh evaluations are made here and not in a helper: made in a function of their own, they
-  // made the first guess of the next large cold solve 25 ms slower at 10,000 edges (measured on
-  // Node 20 and reproducible; where the objects are allocated changes how the engine places
-  // them, which is the likely cause).
-  const evaluations = elements.map(() => new PipeFlowEvaluation());
   const edgeBlocks = new Int32Array(4 * model.edgeFrom.length).fill(-1);
   for (let e = 0; e < model.edgeFrom.length; e++) {
     const a = model.unknownIndex[model.edgeFrom[e] as number] as number;
@@ -353,7 +382,8 @@ export function createNetworkSystem(model: NetworkModel, holder?: StructureHolde
     ambientTemperature: doc.ambientTemperature,
     structure,
     edgeBlocks,
-    evaluations,
+    warmStarts: freshWarmStarts(elements.length),
+    edgeEvaluation: new PipeFlowEvaluation(),
     thermo:
       gasData.heatCapacity === undefined && gasData.equationOfState === undefined
         ? undefined
@@ -684,6 +714,34 @@ export function evaluateEdgeAt(
 }
 
 /**
+ * Flow through edge e between the ends found by {@link edgeEndsAt}, evaluated into the system's
+ * one edge record from the edge's own warm starts, which it then updates. The record is
+ * overwritten by the next edge's evaluation: read what you need first.
+ */
+export function evaluateEdgeWarm(
+  system: NetworkSystem,
+  e: number,
+  ends: EdgeEnds,
+  needCapacity: boolean,
+): PipeFlowEvaluation {
+  const out = system.edgeEvaluation;
+  const starts = system.warmStarts;
+  out.choked = starts.choked[e] === 1;
+  out.lastInletMach = starts.inletMach[e] as number;
+  out.lastCapacityInletMach = starts.capacityInletMach[e] as number;
+  out.lastExitOffset = starts.exitOffset[e] as number;
+  const colebrook = out.friction.colebrook;
+  colebrook.inverseRoot = starts.frictionInverseRoot[e] as number;
+  evaluateEdgeAt(system, e, ends, out, needCapacity);
+  starts.choked[e] = out.choked ? 1 : 0;
+  starts.inletMach[e] = out.lastInletMach;
+  starts.capacityInletMach[e] = out.lastCapacityInletMach;
+  starts.exitOffset[e] = out.lastExitOffset;
+  starts.frictionInverseRoot[e] = colebrook.inverseRoot as number;
+  return out;
+}
+
+/**
  * Evaluate residuals (and, if asked, the Jacobian) at the scaled unknowns x.
  * `throughput` fixes the mass scale; pass undefined to take it from this state.
  *
@@ -725,10 +783,9 @@ export function evaluateSystem(
     const from = model.edgeFrom[e] as number;
     const to = model.edgeTo[e] as number;
     const element = system.elements[e] as EdgeElement;
-    const evaluation = system.evaluations[e] as PipeFlowEvaluation;
-    edgeEndsAt(system, x, e, evaluation, ends);
+    edgeEndsAt(system, x, e, system.edgeEvaluation, ends);
     const { forward, upstream, downstreamPressure: pDown, upstreamPressure: pUp } = ends;
-    const result = evaluateEdgeAt(system, e, ends, evaluation, false);
+    const result = evaluateEdgeWarm(system, e, ends, false);
     const sign = forward ? 1 : -1;
     massFlow[e] = sign * result.massFlow;
     choked[e] = result.choked ? 1 : 0;

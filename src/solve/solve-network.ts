@@ -181,7 +181,7 @@ export function solveWithState(
     ? stateFromResult(built, options.initialResult)
     : undefined;
   // Only a warm start takes what the solve before left (StructureHolder); every solve leaves
-  // its edge evaluations for the next.
+  // its edge warm starts for the next.
   if (holder !== undefined) handOverEdgeStarts(built, holder, fromResult !== undefined);
   const guess = fromResult ?? initialGuess(built);
   // Each junction's pressure unknown is then its offset from the highest first-guess pressure of

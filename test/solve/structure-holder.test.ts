@@ -60,15 +60,15 @@ describe("a sparse structure shared by solves of one layout (StructureHolder)", 
     );
   });
 
-  it("hands a warm start the last case's edge evaluations, and a cold solve fresh ones", () => {
+  it("hands a warm start the last case's edge warm starts, and a cold solve fresh ones", () => {
     const holder: StructureHolder = {};
     const before = solveCheckedDocument(base, { structureHolder: holder });
-    const handed = holder.edgeStarts?.evaluations;
-    expect(handed).toHaveLength(base.edges.length);
+    const handed = holder.edgeStarts?.warmStarts;
+    expect(handed?.inletMach).toHaveLength(base.edges.length);
     const changed = withDemands(base, 1.01);
     const warm = solveCheckedDocument(changed, { initialResult: before, structureHolder: holder });
-    expect(holder.edgeStarts?.evaluations === handed).toBe(true);
-    // The same warm start without the holder (fresh evaluations): the same state to the
+    expect(holder.edgeStarts?.warmStarts === handed).toBe(true);
+    // The same warm start without the holder (fresh warm starts): the same state to the
     // solver's tolerance (1e-9 of the throughput), far below what a result shows.
     const alone = solveCheckedDocument(changed, { initialResult: before });
     expect(warm.converged && alone.converged).toBe(true);
@@ -77,7 +77,7 @@ describe("a sparse structure shared by solves of one layout (StructureHolder)", 
       expect(node.temperature).toBeCloseTo(alone.nodes[i]?.temperature as number, 6);
     });
     solveCheckedDocument(changed, { structureHolder: holder });
-    expect(holder.edgeStarts?.evaluations === handed).toBe(false);
+    expect(holder.edgeStarts?.warmStarts === handed).toBe(false);
   });
 
   it("gives nothing to a warm start whose previous result does not fit the network", () => {
@@ -93,10 +93,10 @@ describe("a sparse structure shared by solves of one layout (StructureHolder)", 
     expect(result).toEqual(solveCheckedDocument(changed));
   });
 
-  it("gives no edge evaluations to a network whose pipes are of another model", () => {
+  it("gives no edge warm starts to a network whose pipes are of another model", () => {
     const holder: StructureHolder = {};
     const before = solveCheckedDocument(base, { structureHolder: holder });
-    const handed = holder.edgeStarts?.evaluations;
+    const handed = holder.edgeStarts?.warmStarts;
     const isothermal: CheckedDocument = {
       ...base,
       edges: base.edges.map((edge) =>
@@ -107,7 +107,7 @@ describe("a sparse structure shared by solves of one layout (StructureHolder)", 
       initialResult: before,
       structureHolder: holder,
     });
-    expect(holder.edgeStarts?.evaluations === handed).toBe(false);
+    expect(holder.edgeStarts?.warmStarts === handed).toBe(false);
     expect(result).toEqual(solveCheckedDocument(isothermal, { initialResult: before }));
   });
 

@@ -7,15 +7,20 @@ import { generateNetwork } from "../../benchmarks/generate-network.js";
 import { solveNetwork } from "../../src/index.js";
 import { readNetworkDocument } from "../../src/input/read-document.js";
 import { buildNetwork } from "../../src/model/build-network.js";
+import { PipeFlowEvaluation } from "../../src/physics/pipe-flow.js";
 import {
   createNetworkSystem,
+  edgeEndsAt,
+  emptyEdgeEnds,
+  evaluateEdgeWarm,
   evaluateSystem,
   type NetworkSystem,
   pressureUnknown,
 } from "../../src/solve/network-system.js";
 
-describe("a warm-started residual evaluation equals a cold one (generated 1,000-edge network)", () => {
-  const document = generateNetwork({ edges: 1000, seed: 4, topology: "mixed" });
+/** A generated mixed network solved, its model, and its converged state as scaled unknowns. */
+function solvedNetwork(edges: number, seed: number) {
+  const document = generateNetwork({ edges, seed, topology: "mixed" });
   const result = solveNetwork(document);
   const read = readNetworkDocument(document);
   if (!read.ok) throw new Error("the generated network does not read");
@@ -24,7 +29,7 @@ describe("a warm-started residual evaluation equals a cold one (generated 1,000-
   const model = built.model;
   const byId = new Map(result.nodes.map((node) => [node.id, node]));
   /** The converged state with every junction pressure scaled by (1 + fraction_j). */
-  const stateOf = (system: NetworkSystem, fraction: (j: number) => number): Float64Array => {
+  const stateOf = (system: NetworkSystem, fraction: (j: number) => number = () => 0) => {
     const x = new Float64Array(2 * system.junctionCount);
     for (let j = 0; j < system.junctionCount; j++) {
       const node = byId.get(read.document.nodes[model.junctionNodes[j] as number]?.id as string);
@@ -34,6 +39,11 @@ describe("a warm-started residual evaluation equals a cold one (generated 1,000-
     }
     return x;
   };
+  return { result, model, stateOf };
+}
+
+describe("a warm-started residual evaluation equals a cold one (generated 1,000-edge network)", () => {
+  const { result, model, stateOf } = solvedNetwork(1000, 4);
 
   it("converges, with choked vents among its edges", () => {
     expect(result.status).toBe("converged");
@@ -147,4 +157,90 @@ describe("an evaluation in a retired evaluation's arrays equals a fresh one", ()
       ]);
     });
   }
+});
+
+// Issue 8 (memory): every edge is evaluated into the system's one PipeFlowEvaluation record, with
+// its own warm starts moved in and out (EdgeWarmStarts). What the record holds from the edge
+// evaluated before must not reach the next: an edge evaluated right after any other edge gives
+// the same numbers to the bit as one evaluated into a fresh record.
+describe("an edge's evaluation does not depend on the edge evaluated before it", () => {
+  const { model, stateOf } = solvedNetwork(300, 11);
+  const fields = [
+    "massFlow",
+    "dMassFlowdUpstreamPressure",
+    "dMassFlowdDownstreamPressure",
+    "choked",
+    "capacity",
+    "inletMach",
+    "outletMach",
+    "outletPressure",
+    "frictionFactor",
+    "arrivalTemperature",
+  ] as const;
+
+  it("gives each edge, after a choked vent and after a creeping pipe, what it gives alone", () => {
+    const shared = createNetworkSystem(model);
+    const x = stateOf(shared);
+    // Warm every edge's starts once, as Newton does, in both systems alike.
+    evaluateSystem(shared, x, true);
+    const edgeCount = shared.edgeCount;
+    const atSolution = evaluateSystem(shared, x, false);
+    const flows = atSolution.massFlow;
+    const choked = atSolution.choked.indexOf(1);
+    let quietest = 0;
+    for (let e = 0; e < edgeCount; e++) {
+      if (Math.abs(flows[e] as number) < Math.abs(flows[quietest] as number)) quietest = e;
+    }
+    expect(choked).toBeGreaterThanOrEqual(0);
+    const ends = emptyEdgeEnds();
+    // As Newton evaluates (without the capacity) and as the results do (with it).
+    const evaluate = (system: NetworkSystem, e: number, needCapacity: boolean) => {
+      edgeEndsAt(system, x, e, system.edgeEvaluation, ends);
+      const out = evaluateEdgeWarm(system, e, ends, needCapacity);
+      return fields.map((field) => out[field]);
+    };
+    for (const needCapacity of [false, true]) {
+      for (const before of [choked, quietest]) {
+        for (let e = 0; e < edgeCount; e++) {
+          const alone = createNetworkSystem(model);
+          evaluateSystem(alone, x, true);
+          // A fresh record: nothing in it from another edge.
+          alone.edgeEvaluation = new PipeFlowEvaluation();
+          const expected = evaluate(alone, e, needCapacity);
+          // The same history, then another edge's evaluation fills the shared record first.
+          const after = createNetworkSystem(model);
+          evaluateSystem(after, x, true);
+          evaluate(after, before, needCapacity);
+          expect(evaluate(after, e, needCapacity), `edge ${e} after edge ${before}`).toEqual(
+            expected,
+          );
+        }
+      }
+    }
+    // And each edge keeps its own roots for its next evaluation (the choked vent its choke).
+    const kept = createNetworkSystem(model);
+    evaluateSystem(kept, x, false);
+    expect(kept.warmStarts.choked[choked]).toBe(1);
+    for (let e = 0; e < edgeCount; e++) {
+      evaluate(kept, e, false);
+      const record = kept.edgeEvaluation;
+      const starts = kept.warmStarts;
+      expect(
+        [
+          starts.choked[e] === 1,
+          starts.inletMach[e],
+          starts.capacityInletMach[e],
+          starts.exitOffset[e],
+          starts.frictionInverseRoot[e],
+        ],
+        `edge ${e}`,
+      ).toEqual([
+        record.choked,
+        record.lastInletMach,
+        record.lastCapacityInletMach,
+        record.lastExitOffset,
+        record.friction.colebrook.inverseRoot,
+      ]);
+    }
+  });
 });
