@@ -209,8 +209,11 @@ function lookUp(text: string): LookedUp | "number" | "unknown" {
 function lookUpAnew(text: string): LookedUp | "number" | "unknown" {
   const reading = readUnitText(text);
   if (!reading.ok) return reading.problem === "number" ? "number" : "unknown";
-  const flat = reading.terms
-    .filter((term) => term.power !== 0)
+  const terms = reading.terms.filter((term) => term.power !== 0);
+  // Nothing left ("m^0") is no unit; a power that prints in exponent notation ("m^1e-7") is none
+  // that a unit is raised to, and unitmath could not read it back.
+  if (terms.length === 0 || terms.some((term) => /e/i.test(String(term.power)))) return "unknown";
+  const flat = terms
     .map((term) => (term.power === 1 ? term.name : `${term.name}^${term.power}`))
     .join(" ");
   let parsed: UnitMathUnit;

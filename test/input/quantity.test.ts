@@ -330,6 +330,14 @@ describe("parseQuantity reports what it cannot read", () => {
     expect(length.message).toMatch(/^unknown unit "nn" \(got "80 nn"\); length units: m, cm, mm/);
   });
 
+  test("unit text whose powers cancel to nothing is an unknown unit, not a crash", () => {
+    for (const input of ["5 m^0", "3 (m s)^0", "2 m^0.0000001"]) {
+      const issue = issueOf(input, "length", { path });
+      expect(issue.code, input).toBe("unit");
+      expect(issue.message, input).toMatch(/^unknown unit/);
+    }
+  });
+
   test("a wrong dimension names the dimension found", () => {
     expect(issueOf("7 m", "pressure", { path })).toEqual({
       code: "unit",

@@ -89,3 +89,11 @@ describe("dimensions and conversions", () => {
     expect(() => convertUnit(1, "furlongs_per_ell", "m")).toThrow(/unknown unit/);
   });
 });
+
+describe("unit text that reduces to no unit", () => {
+  test("a zero power or one in exponent notation is an unknown unit, not a crash", () => {
+    for (const text of ["m^0", "m^-0", "(m s)^0", "m^0.0000001"]) {
+      expect(knownUnit(text), text).toEqual({ ok: false, problem: "unknown" });
+    }
+  });
+});

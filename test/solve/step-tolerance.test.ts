@@ -23,4 +23,11 @@ describe("the step tolerance of inexact Newton", () => {
     expect(stepTolerance(6e-9, 2e-6, 6e-9, 1e-9)).toBe(1e-3);
     expect(stepTolerance(6e-7, 2e-4, 6e-7, 1e-9)).toBeCloseTo(0.5e-9 / 6e-7, 15);
   });
+
+  it("keeps the linear residual below the merit norm when that is already under the tolerance", () => {
+    // A merit norm of 2e-10 (weighted rows) whose right-hand side is 5e-7 in 2-norm (a trickle
+    // junction's raw temperature row): half the merit norm, 1e-10 / 5e-7 = 2e-4, not
+    // 0.5e-9 / 5e-7 = 1e-3, so that the step still lowers the merit.
+    expect(stepTolerance(2e-10, 1e-6, 5e-7, 1e-9)).toBeCloseTo(2e-4, 15);
+  });
 });

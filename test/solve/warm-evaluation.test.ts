@@ -2,6 +2,7 @@
 // Colebrook-White, capacity) start from the roots of the previous evaluation on the same edge.
 // A warm-started evaluation must give what a cold one gives, to the tolerances the inversions
 // stop at.
+import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { generateNetwork } from "../../benchmarks/generate-network.js";
 import { solveNetwork } from "../../src/index.js";
@@ -20,7 +21,11 @@ import {
 
 /** A generated mixed network solved, its model, and its converged state as scaled unknowns. */
 function solvedNetwork(edges: number, seed: number) {
-  const document = generateNetwork({ edges, seed, topology: "mixed" });
+  return solvedDocument(generateNetwork({ edges, seed, topology: "mixed" }));
+}
+
+/** A network document solved, its model, and its converged state as scaled unknowns. */
+function solvedDocument(document: unknown) {
   const result = solveNetwork(document);
   const read = readNetworkDocument(document);
   if (!read.ok) throw new Error("the generated network does not read");
@@ -163,6 +168,10 @@ describe("an evaluation in a retired evaluation's arrays equals a fresh one", ()
 // its own warm starts moved in and out (EdgeWarmStarts). What the record holds from the edge
 // evaluated before must not reach the next: an edge evaluated right after any other edge gives
 // the same numbers to the bit as one evaluated into a fresh record.
+const EXAMPLES = new URL("../../docs/examples/", import.meta.url);
+/** Example networks with components, heat-transfer pipes, a real gas and rising pipes. */
+const EXAMPLE_NETWORKS = ["regulated-header.json", "fuel-gas-riser.json", "winter-vent-riser.json"];
+
 describe("an edge's evaluation does not depend on the edge evaluated before it", () => {
   const { model, stateOf } = solvedNetwork(300, 11);
   const fields = [
@@ -243,4 +252,44 @@ describe("an edge's evaluation does not depend on the edge evaluated before it",
       ]);
     }
   });
+
+  for (const name of EXAMPLE_NETWORKS) {
+    it(`gives each edge of ${name} what it gives alone, after every other edge`, () => {
+      const example = solvedDocument(JSON.parse(readFileSync(new URL(name, EXAMPLES), "utf8")));
+      const probe = createNetworkSystem(example.model);
+      const x = example.stateOf(probe);
+      const ends = emptyEdgeEnds();
+      const evaluate = (system: NetworkSystem, e: number, needCapacity: boolean) => {
+        edgeEndsAt(system, x, e, system.edgeEvaluation, ends);
+        const out = evaluateEdgeWarm(system, e, ends, needCapacity);
+        return [
+          out.massFlow,
+          out.dMassFlowdUpstreamPressure,
+          out.choked,
+          out.capacity,
+          out.arrivalTemperature,
+          out.heatFlow,
+          out.outletPressure,
+        ];
+      };
+      for (const needCapacity of [false, true]) {
+        for (let e = 0; e < probe.edgeCount; e++) {
+          const alone = createNetworkSystem(example.model);
+          evaluateSystem(alone, x, true);
+          alone.edgeEvaluation = new PipeFlowEvaluation();
+          const expected = evaluate(alone, e, needCapacity);
+          for (let before = 0; before < probe.edgeCount; before++) {
+            // (Evaluating the edge itself first would move its own warm starts.)
+            if (before === e) continue;
+            const after = createNetworkSystem(example.model);
+            evaluateSystem(after, x, true);
+            evaluate(after, before, needCapacity);
+            expect(evaluate(after, e, needCapacity), `edge ${e} after edge ${before}`).toEqual(
+              expected,
+            );
+          }
+        }
+      }
+    });
+  }
 });
