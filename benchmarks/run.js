@@ -5,6 +5,7 @@
 //   npm run bench                 sizes 10 .. 10,000
 //   npm run bench -- --large      adds 100,000
 //   npm run bench -- --sizes 1000,10000 --topologies mixed
+//   npm run bench -- --repeat 5   each measurement in 5 processes (default 3), median shown
 //
 // Per size and topology: Newton iterations, cold solve time (the whole solveNetwork: reading,
 // model, structure, first guess, Newton, results and their independent check), ms per 1,000
@@ -14,6 +15,10 @@
 // size where it still finishes within GENERIC_LIMIT_MS. At 10,000 edges also a warm start: the
 // same network re-solved from its solution after every demand grew by 1 %, in three ways, each
 // in a process of its own (warmChild).
+//
+// This machine's timings vary by up to 45 % from one process to the next, so every measurement is
+// taken in REPEATS processes of its own and the median is shown, with the range in the JSON
+// (`solveMsRuns`); the generic approach runs once.
 //
 // Run after `npm run build` (npm run bench does that). Timing lives here, never in tests.
 import { execFileSync } from "node:child_process";
@@ -28,11 +33,19 @@ const GENERIC_MAX_EDGES = 1000;
 /** The size at which the warm start is measured. */
 const WARM_START_EDGES = 10_000;
 
+/** Processes per measurement, unless --repeat says otherwise (the median is reported). */
+const DEFAULT_REPEATS = 3;
+
 /** The ways a warm start is measured, each in a process of its own (see warmChild). */
 const WARM_VARIANTS = ["plain", "reuse", "study"];
 
 if (process.argv[2] === "--child") {
-  await child(Number(process.argv[3]), process.argv[4], Number(process.argv[5]));
+  await child(
+    Number(process.argv[3]),
+    process.argv[4],
+    Number(process.argv[5]),
+    !process.argv.includes("--no-generic"),
+  );
 } else if (process.argv[2] === "--warm-child") {
   await warmChild(
     Number(process.argv[3]),
@@ -54,6 +67,7 @@ async function parent() {
   if (process.argv.includes("--large")) sizes.push(100000);
   if (option("--sizes")) sizes = option("--sizes").split(",").map(Number);
   const topologies = (option("--topologies") ?? "tree,mixed,grid").split(",");
+  const repeats = Math.max(1, Number(option("--repeat") ?? DEFAULT_REPEATS));
   const rows = [];
   const header = [
     "edges".padStart(7),
@@ -72,13 +86,27 @@ async function parent() {
   console.log(header);
   for (const edges of sizes) {
     for (const topology of topologies) {
-      const row = childResult("--child", edges, topology);
+      const runs = [childResult("--child", edges, topology)];
+      for (let k = 1; k < repeats; k++) {
+        runs.push(childResult("--child", edges, topology, "--no-generic"));
+      }
+      const row = medianRow(runs);
       rows.push(row);
       console.log(formatRow(row));
       if (edges === WARM_START_EDGES) {
         row.warmStart = {};
         for (const variant of WARM_VARIANTS) {
-          row.warmStart[variant] = childResult("--warm-child", edges, topology, variant);
+          const warmRuns = [];
+          for (let k = 0; k < repeats; k++) {
+            warmRuns.push(childResult("--warm-child", edges, topology, variant));
+          }
+          // The run of median share of its own cold solve, with every run's share beside it.
+          const share = (warm) => warm.solveMs / warm.coldMs;
+          const sorted = [...warmRuns].sort((a, b) => share(a) - share(b));
+          row.warmStart[variant] = {
+            ...sorted[Math.floor((sorted.length - 1) / 2)],
+            shareRuns: warmRuns.map(share),
+          };
         }
         console.log(
           "        warm start after +1 % on every demand (ms, iterations, share of the cold solve in the same process): " +
@@ -98,7 +126,7 @@ async function parent() {
   const loadAverage = os.loadavg();
   writeFileSync(
     file,
-    `${JSON.stringify({ machine, loadAverage, growthExponents: growth, rows }, null, 2)}\n`,
+    `${JSON.stringify({ machine, loadAverage, repeats, growthExponents: growth, rows }, null, 2)}\n`,
   );
   console.log(`\ngrowth of solve time from 1,000 to 100,000 edges (exponent of n):`);
   for (const [topology, exponent] of Object.entries(growth)) {
@@ -108,7 +136,7 @@ async function parent() {
     `\ncolumns: edges, topology, nodes, loops (edges - nodes + 1), status, Newton iterations,`,
   );
   console.log(
-    `solve ms (cold, whole solveNetwork), ms per 1000 edges, peak RSS MB, solve time / one residual evaluation,`,
+    `solve ms (cold, whole solveNetwork; the median of ${repeats} processes), ms per 1000 edges, peak RSS MB (the largest), solve time / one residual evaluation (medians),`,
   );
   console.log(
     `generic approach ms (dense finite-difference Jacobian + ml-matrix LU; "-" not run, ">60000" stopped), its time / ours; "stalled": no decrease of the residual along its Newton step`,
@@ -117,6 +145,32 @@ async function parent() {
     `machine: ${machine}; load average at the end ${loadAverage.map((v) => v.toFixed(1)).join(" ")}`,
   );
   console.log(`written ${fileURLToPath(file)}`);
+}
+
+/** The median of a list of numbers. */
+function median(values) {
+  const sorted = [...values].sort((a, b) => a - b);
+  const middle = Math.floor(sorted.length / 2);
+  return sorted.length % 2 === 1 ? sorted[middle] : 0.5 * (sorted[middle - 1] + sorted[middle]);
+}
+
+/**
+ * One row from the processes of a measurement: the median solve time and residual evaluation,
+ * the largest peak memory, the first run's generic approach; the runs' times kept in the JSON.
+ */
+function medianRow(runs) {
+  const solveMs = median(runs.map((run) => run.solveMs));
+  const evaluationMs = median(runs.map((run) => run.evaluationMs));
+  return {
+    ...runs[0],
+    iterations: median(runs.map((run) => run.iterations)),
+    solveMs,
+    solveMsRuns: runs.map((run) => run.solveMs),
+    msPer1000Edges: (1000 * solveMs) / runs[0].edges,
+    peakMb: Math.max(...runs.map((run) => run.peakMb)),
+    evaluationMs,
+    evaluationRatio: solveMs / evaluationMs,
+  };
 }
 
 function formatRow(row) {
@@ -185,7 +239,7 @@ function machineDescription() {
   return `${cpus[0]?.model ?? "cpu"}, ${cpus.length} logical cores (os.availableParallelism ${os.availableParallelism()}), ${(os.totalmem() / 2 ** 30).toFixed(0)} GiB, ${os.platform()} ${os.release()}, node ${process.version}`;
 }
 
-async function child(edges, topology, seed) {
+async function child(edges, topology, seed, withGeneric = true) {
   const { generateNetwork } = await import("./generate-network.js");
   const { solveNetwork } = await import("../dist/src/index.js");
   const { readNetworkDocument } = await import("../dist/src/input/read-document.js");
@@ -221,7 +275,7 @@ async function child(edges, topology, seed) {
   }
 
   let generic;
-  if (edges <= GENERIC_MAX_EDGES) {
+  if (withGeneric && edges <= GENERIC_MAX_EDGES) {
     generic = await genericSolve(system, networkSystem, read.document.settings.tolerance);
   }
 
