@@ -155,11 +155,20 @@ function canonicalOrder(document: CheckedDocument): {
     });
   const nodes = byId(document.nodes);
   const edges = byId(document.edges);
+  // Every property written out, not spread: a spread copy's hidden class depends on whether the
+  // engine runs this code optimized, and code optimized on the documents of earlier solves was
+  // thrown away on a later one's ("wrong map" deoptimizations of the first guess and of the
+  // residual evaluation in the first large solve of a process).
   return {
     document: {
-      ...document,
+      name: document.name,
+      gas: document.gas,
+      ambientPressure: document.ambientPressure,
+      ambientTemperature: document.ambientTemperature,
+      settings: document.settings,
       nodes: Array.from(nodes, (i) => document.nodes[i] as CheckedDocument["nodes"][number]),
       edges: Array.from(edges, (i) => document.edges[i] as CheckedDocument["edges"][number]),
+      notes: document.notes,
     },
     filePosition: { nodes, edges },
   };

@@ -23,7 +23,12 @@ import {
   type StructureHolder,
   withPressureReferences,
 } from "./network-system.js";
-import { type NewtonOutcome, newtonSolve, ROUND_OFF_CEILING } from "./newton.js";
+import {
+  type NewtonOptions,
+  type NewtonOutcome,
+  newtonSolve,
+  ROUND_OFF_CEILING,
+} from "./newton.js";
 
 /** Options of {@link solveNetwork}. */
 export interface SolveOptions {
@@ -132,6 +137,24 @@ export function solveNetwork(document: unknown, options: SolveOptions = {}): Net
   return solveCheckedDocument(checked, options);
 }
 
+/**
+ * Newton's options with start factors. Written out rather than spread: a spread copy's hidden
+ * class depends on whether the engine runs the code optimized, and code optimized on the
+ * options of earlier solves was thrown away on a later one's ("wrong map" deoptimizations).
+ */
+function newtonOptionsWith(
+  options: NewtonOptions,
+  startFactors: NonNullable<NewtonOptions["startFactors"]>,
+): NewtonOptions {
+  return {
+    tolerance: options.tolerance,
+    maxIterations: options.maxIterations,
+    deadline: options.deadline,
+    now: options.now,
+    startFactors,
+  };
+}
+
 /** Build the model of a checked document or throw the topology issues. */
 export function modelOf(checked: CheckedDocument): NetworkModel {
   const built = buildNetwork(checked);
@@ -168,10 +191,13 @@ export function solveWithState(
   const now = limitMs !== undefined ? (options.now ?? (() => performance.now())) : undefined;
   // The budget starts before the model is built: building, the sparse structure and the first
   // guess count against it (reading the document does not: its time limit is not known before).
-  const newtonOptions = {
+  // Every property written out, not spread: see newtonOptionsWith.
+  const newtonOptions: NewtonOptions = {
     tolerance: settings.tolerance,
     maxIterations: settings.maxIterations,
-    ...(limitMs !== undefined && now !== undefined ? { deadline: now() + limitMs, now } : {}),
+    deadline: limitMs !== undefined && now !== undefined ? now() + limitMs : undefined,
+    now,
+    startFactors: undefined,
   };
   const model = modelOf(checked);
   const holder =
@@ -199,7 +225,7 @@ export function solveWithState(
   let outcome = newtonSolve(
     system,
     start,
-    startFactors !== undefined ? { ...newtonOptions, startFactors } : newtonOptions,
+    startFactors !== undefined ? newtonOptionsWith(newtonOptions, startFactors) : newtonOptions,
   );
   let iterations = outcome.iterations;
   const warnings: SolverWarning[] = checked.notes.map((note) => ({

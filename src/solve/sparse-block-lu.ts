@@ -378,6 +378,11 @@ export function analyzeBlockPattern(pattern: BlockPattern): BlockLuStructure {
     assemblyTarget: Int32Array.from(targets),
     frontCapacity,
     stackCapacity,
+    // Made on first use, but present from the start, so that a structure keeps one hidden
+    // class whatever has been solved on it (see canonicalOrder in build-network.ts).
+    gmresWorkspace: undefined,
+    factorWorkspace: undefined,
+    scalarLayout: undefined,
   };
 }
 
