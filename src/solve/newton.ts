@@ -93,9 +93,9 @@ const FROZEN_STEP_ITERATIONS = 12;
  * for the step's second-order error, which is far smaller by then. Without this floor the last
  * step of the 100,000-edge grid asked for 7e-6 where the ceiling, 1e-3, would have done (the
  * floor there is 0.08), and GMRES gave up and the Jacobian was factored once more (0.9 s of
- * 12 s). The safeguard against oversolving of C. T.
- * Kelley, Iterative Methods for Linear and Nonlinear Equations, SIAM, 1995, section 6.3
- * (eta >= 0.5 tau / |F(x_k)|; the reference from memory).
+ * 12 s). The safeguard against oversolving of C. T. Kelley, Iterative Methods for Linear and
+ * Nonlinear Equations, SIAM, 1995, section 6.3 (eta >= 0.5 tau / |F(x_k)|; the reference from
+ * memory).
  */
 const FINISH_SHARE = 0.5;
 const STEP_TOLERANCE_CEILING = 1e-3;
