@@ -13,7 +13,14 @@ import {
   type ReferenceCondition,
   referenceDensity,
 } from "./reference-conditions.js";
-import { convertUnit, type KnownUnit, knownUnit, sameDimension, siBaseUnits } from "./unit-text.js";
+import {
+  convertUnit,
+  type KnownUnit,
+  knownUnit,
+  sameDimension,
+  siBaseUnits,
+  unitOf,
+} from "./unit-text.js";
 
 /** What a quantity measures; decides the accepted units and the SI unit of the result. */
 export type QuantityKind =
@@ -433,7 +440,7 @@ function convertPlain(
       ),
     );
   }
-  if (!sameDimension(parsed.unit, unitNamed(si))) {
+  if (!sameDimension(parsed.unit, unitOf(si))) {
     const found = dimensionName(parsed.unit);
     if (kind === "massFlow" && found === "a volumetric flow") {
       return failure(
@@ -609,17 +616,10 @@ function siLabel(si: string): string {
 
 function dimensionName(parsed: KnownUnit): string {
   for (const [name, reference] of DIMENSION_NAMES) {
-    if (sameDimension(parsed, unitNamed(reference))) return name;
+    if (sameDimension(parsed, unitOf(reference))) return name;
   }
   const siUnits = siBaseUnits(parsed);
   return siUnits === "" ? "a plain number" : `a quantity in ${siUnits}`;
-}
-
-/** A unit of this module's own tables (always known). */
-function unitNamed(text: string): KnownUnit {
-  const known = knownUnit(text);
-  if (!known.ok) throw new Error(`unit table names an unknown unit "${text}"`);
-  return known.unit;
 }
 
 function notAQuantity(input: unknown, spec: KindSpec, path: string): InputIssue {

@@ -183,7 +183,13 @@ export function convertUnit(
   return converted;
 }
 
-function unitOf(text: string | KnownUnit): KnownUnit {
+/**
+ * A unit given as text (looked up) or already looked up, for units a caller knows to exist
+ * (its own tables).
+ *
+ * @throws Error if the text names no unit unitmath knows
+ */
+export function unitOf(text: string | KnownUnit): KnownUnit {
   if (typeof text !== "string") return text;
   const known = knownUnit(text);
   if (!known.ok) throw new Error(`unknown unit "${text}"`);

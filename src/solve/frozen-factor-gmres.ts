@@ -249,7 +249,8 @@ export function solveWithFrozenFactors(
   return { x: x0, iterations: done };
 }
 
-function norm(v: Float64Array): number {
+/** The 2-norm of a vector. */
+export function norm(v: Float64Array): number {
   let sum = 0;
   for (let i = 0; i < v.length; i++) sum += (v[i] as number) * (v[i] as number);
   return Math.sqrt(sum);

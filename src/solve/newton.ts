@@ -3,7 +3,11 @@
  * and temperatures positive, and a backtracking line search on the scaled residual norm.
  */
 
-import { reuseOfFactorsPays, solveWithFrozenFactors } from "./frozen-factor-gmres.js";
+import {
+  norm as euclideanNorm,
+  reuseOfFactorsPays,
+  solveWithFrozenFactors,
+} from "./frozen-factor-gmres.js";
 import {
   evaluateSystem,
   type NetworkSystem,
@@ -169,12 +173,6 @@ export function stepTolerance(
   return Math.min(STEP_TOLERANCE_CEILING, Math.max(STEP_TOLERANCE_FLOOR, eta, enough));
 }
 
-function norm2(values: Float64Array): number {
-  let sum = 0;
-  for (let i = 0; i < values.length; i++) sum += (values[i] as number) * (values[i] as number);
-  return Math.sqrt(sum);
-}
-
 function largest(residual: Float64Array, offset: number): number {
   let value = 0;
   for (let i = offset; i < residual.length; i += 2)
@@ -323,7 +321,12 @@ export function newtonSolve(
     for (let i = 0; i < rhs.length; i++) rhs[i] = -(evaluation.residual[i] as number);
     const residualNorm = Math.sqrt(merit(evaluation, system.temperatureScale));
     if (Number.isFinite(previousNorm) && previousNorm > 0) {
-      solver.tolerance = stepTolerance(residualNorm, previousNorm, norm2(rhs), options.tolerance);
+      solver.tolerance = stepTolerance(
+        residualNorm,
+        previousNorm,
+        euclideanNorm(rhs),
+        options.tolerance,
+      );
     }
     previousNorm = residualNorm;
     const step = newtonStep(system, jacobian, rhs, solver);
